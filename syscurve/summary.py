@@ -1,0 +1,175 @@
+"""The readable summary of a report, in display units, for the command line."""
+
+from __future__ import annotations
+
+import textwrap
+from collections.abc import Sequence
+
+from .results import Report
+from .units import Display, format_number
+
+
+def text_table(headers: Sequence[str], rows: Sequence[Sequence[str]], indent: str = "  ") -> str:
+    """A plain-text table: first column left-aligned, the others right-aligned."""
+    widths = [len(h) for h in headers]
+    for row in rows:
+        widths = [max(w, len(cell)) for w, cell in zip(widths, row, strict=True)]
+
+    def line(cells: Sequence[str]) -> str:
+        parts = [
+            cell.ljust(w) if i == 0 else cell.rjust(w)
+            for i, (cell, w) in enumerate(zip(cells, widths, strict=True))
+        ]
+        return indent + "  ".join(parts).rstrip()
+
+    rule = indent + "  ".join("-" * w for w in widths)
+    return "\n".join([line(headers), rule, *(line(r) for r in rows)])
+
+
+def _bullets(items: Sequence[str], width: int = 96) -> str:
+    if not items:
+        return "  (none)"
+    return "\n".join(
+        textwrap.fill(item, width=width, initial_indent="  - ", subsequent_indent="    ")
+        for item in items
+    )
+
+
+def verdict_sentences(report: Report, display: Display) -> list[str]:
+    """The gravity verdict in plain words (shared by the CLI and the dashboard)."""
+    v = report.verdict
+    governing = report.scenario(v.governing_scenario)
+    demand = display.text("flow", report.case.demand)
+    gravity = display.text("flow", governing.gravity_flow)
+    margin = display.text("head", abs(v.margin_head))
+    if v.meets_everywhere:
+        sentences = [
+            f"Gravity alone meets the demand of {demand} in every scenario.",
+            f"The tightest is {v.governing_scenario}, with {margin} of head to spare; gravity "
+            f"would deliver {gravity} there ({v.flow_ratio:.0%} of the demand).",
+        ]
+    else:
+        failing = ", ".join(v.failing_scenarios)
+        sentences = [
+            f"Gravity alone does NOT meet the demand of {demand} in: {failing}.",
+            f"The governing scenario is {v.governing_scenario}: short by {margin} of head; "
+            f"gravity delivers {gravity} there ({v.flow_ratio:.0%} of the demand).",
+            f"A pump must add {margin} at {demand} in {v.governing_scenario}, or raise the "
+            f"source to {display.text('level', governing.required_source_level, 5)}, "
+            "or enlarge the pipe.",
+        ]
+    sizing = report.sizing
+    if sizing is not None:
+        which = ", ".join(f"'{n}'" for n in sizing.segments)
+        named = "" if sizing.source == "case list" else f"{sizing.label}, "
+        sentences.append(
+            f"Smallest candidate inside diameter for {which} that meets the demand by gravity "
+            f"in {v.governing_scenario}: {display.text('diameter', sizing.diameter)} "
+            f"({named}{sizing.source})."
+        )
+    elif report.case.sizing_candidates:
+        sentences.append(
+            "None of the candidate diameters meets the demand by gravity in "
+            f"{v.governing_scenario}."
+        )
+    return sentences
+
+
+def summary_text(report: Report, units: str | None = None) -> str:
+    """The report as readable text in `units` ("SI" or "US"; default: the case's)."""
+    case = report.case
+    d = Display(units or case.display)
+    liquid = case.liquid
+    out: list[str] = []
+    out.append(case.title)
+    out.append("=" * min(len(case.title), 96))
+    what = liquid.name
+    if liquid.temperature is not None:
+        what += f" at {d.text('temperature', liquid.temperature)}"
+    vapor = "n/a" if liquid.vapor_pressure is None else d.text("pressure", liquid.vapor_pressure)
+    out.append(
+        f"Liquid: {what}; density {d.text('density', liquid.density, 5)}, viscosity "
+        f"{d.text('viscosity', liquid.viscosity, 4)}, vapour pressure {vapor}"
+    )
+    site = f"altitude {d.text('level', case.altitude, 4)}, " if case.altitude is not None else ""
+    out.append(f"Site: {site}barometric pressure {d.text('pressure', case.barometric_pressure, 4)}")
+    out.append(
+        f"Demand {d.text('flow', case.demand)}; friction {case.pipeline.model.label}; "
+        f"outlet: {case.pipeline.outlet}"
+    )
+    out.append("")
+    out.append("GRAVITY VERDICT")
+    out.append(
+        _bullets(verdict_sentences(report, d)).replace("  - ", "  ", 1).replace("\n  - ", "\n  ")
+    )
+    out.append("")
+    out.append("SCENARIOS")
+    head, level, flow = d.label("head"), d.label("level"), d.label("flow")
+    rows = [
+        [
+            r.name,
+            format_number(d.value("level", r.curve.scenario.source_level), 6),
+            format_number(d.value("level", r.curve.scenario.delivery_level), 6),
+            format_number(r.curve.scenario.age_years, 3),
+            format_number(d.value("head", r.static_head), 4),
+            format_number(d.value("head", r.head_at_demand), 4),
+            format_number(d.value("flow", r.gravity_flow), 4),
+            "yes" if r.meets_demand else "NO",
+            format_number(d.value("level", r.required_source_level), 6),
+        ]
+        for r in report.scenarios
+    ]
+    out.append(
+        text_table(
+            [
+                "scenario",
+                f"source [{level}]",
+                f"delivery [{level}]",
+                "pipe age [yr]",
+                f"static head [{head}]",
+                f"H_sys at demand [{head}]",
+                f"gravity flow [{flow}]",
+                "meets demand",
+                f"source needed [{level}]",
+            ],
+            rows,
+        )
+    )
+    out.append("")
+    governing = report.scenario(report.verdict.governing_scenario)
+    out.append(f"SEGMENTS AT THE DEMAND ({governing.name})")
+    rows = [
+        [
+            s.name,
+            format_number(d.value("diameter", s.diameter), 4),
+            format_number(d.value("velocity", s.velocity), 3),
+            f"{s.reynolds:,.0f}",
+            f"{s.friction_factor:.4f}",
+            format_number(s.k_minor, 3),
+            format_number(d.value("head", s.friction_loss), 4),
+            format_number(d.value("head", s.minor_loss), 3),
+        ]
+        for s in governing.segments_at_demand
+    ]
+    out.append(
+        text_table(
+            [
+                "segment",
+                f"inside diameter [{d.label('diameter')}]",
+                f"velocity [{d.label('velocity')}]",
+                "Re",
+                "f (Darcy)",
+                "K total",
+                f"friction loss [{head}]",
+                f"minor loss [{head}]",
+            ],
+            rows,
+        )
+    )
+    out.append("")
+    out.append("WARNINGS")
+    out.append(_bullets(report.warnings))
+    out.append("")
+    out.append("CAUTIONS")
+    out.append(_bullets(report.cautions))
+    return "\n".join(out) + "\n"
