@@ -15,9 +15,8 @@ aggressiveness, from memory): set `roughness_growth` on a segment for your water
 from __future__ import annotations
 
 from dataclasses import dataclass
-from difflib import get_close_matches
 
-from .errors import CaseError
+from .errors import CaseError, did_you_mean
 
 #: Reference for the linear roughness-growth model.
 AGING_MODEL_REFERENCE = (
@@ -248,8 +247,7 @@ FITTINGS: dict[str, Fitting] = {
 
 
 def _unknown(kind: str, name: str, names: list[str], key: str) -> CaseError:
-    close = get_close_matches(str(name), names, n=3, cutoff=0.5)
-    hint = f"did you mean {', '.join(repr(c) for c in close)}? " if close else ""
+    hint = did_you_mean(name, names)
     return CaseError(f'unknown {kind} "{name}"; {hint}known: {", ".join(names)}', key)
 
 

@@ -62,3 +62,20 @@ class Problems:
     def raise_if_any(self) -> None:
         if self.items:
             raise CaseError(self.items)
+
+
+def nearest_names(name: object, names: Iterable[str], count: int = 3) -> list[str]:
+    """Known names closest to `name`: those containing it first, then by similarity."""
+    from difflib import get_close_matches
+
+    text = str(name).lower()
+    known = list(names)
+    containing = [n for n in known if text and text in n]
+    similar = get_close_matches(text, known, n=count, cutoff=0.5)
+    return list(dict.fromkeys(containing + similar))[:count]
+
+
+def did_you_mean(name: object, names: Iterable[str]) -> str:
+    """"did you mean 'a' or 'b'? " (with the trailing space), or "" when nothing is close."""
+    close = nearest_names(name, names)
+    return f"did you mean {' or '.join(repr(c) for c in close)}? " if close else ""

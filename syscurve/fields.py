@@ -7,10 +7,9 @@ missing or wrong and records a problem; `Reader.done()` raises them all at once.
 from __future__ import annotations
 
 import math
-from difflib import get_close_matches
 from typing import Any
 
-from .errors import CaseError, Problems
+from .errors import CaseError, Problems, did_you_mean
 from .units import KINDS, parse_head_or_pressure, parse_quantity, parse_temperature
 
 
@@ -43,12 +42,7 @@ class Reader:
         for key in table:
             if key in allowed:
                 continue
-            close = get_close_matches(key, allowed, n=2, cutoff=0.6)
-            hint = (
-                f"did you mean {' or '.join(repr(c) for c in close)}?"
-                if close
-                else (f"known keys: {', '.join(allowed)}")
-            )
+            hint = did_you_mean(key, allowed).strip() or f"known keys: {', '.join(allowed)}"
             self.add(f"{path}.{key}" if path else key, f"unknown key; {hint}")
 
     def quantity(
@@ -181,8 +175,7 @@ class Reader:
             self.add(key, f"expected a string, got {raw!r}")
             return None
         if choices is not None and raw not in choices:
-            close = get_close_matches(raw, choices, n=1, cutoff=0.5)
-            hint = f"did you mean '{close[0]}'? " if close else ""
+            hint = did_you_mean(raw, choices)
             self.add(key, f'unknown value "{raw}"; {hint}use one of: {", ".join(choices)}')
             return None
         return raw

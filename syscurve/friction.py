@@ -374,15 +374,12 @@ HAZEN_WILLIAMS_TEMPERATURE_RANGE = (273.15 + 5.0, 273.15 + 30.0)
 
 def get_model(name: str) -> FrictionModel:
     """The friction model called `name`; an unknown name raises with the nearest names."""
-    from .errors import CaseError
+    from .errors import CaseError, did_you_mean
 
     try:
         return MODELS[name]
     except KeyError:
-        from difflib import get_close_matches
-
-        close = get_close_matches(str(name), list(MODELS), n=3, cutoff=0.4)
-        hint = f"did you mean {', '.join(repr(c) for c in close)}? " if close else ""
+        hint = did_you_mean(name, MODELS)
         raise CaseError(
             f'unknown friction model "{name}"; {hint}choose one of: {", ".join(MODELS)}',
             "pipe.friction",
