@@ -1,0 +1,1 @@
+"""The syscurve web dashboard (Dash). Start it with `syscurve dashboard`."""
