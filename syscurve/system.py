@@ -16,6 +16,7 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass, replace
 from functools import cached_property
+from typing import Any
 
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
@@ -156,22 +157,6 @@ class SystemCurve:
             s.hazen_williams_c_at(age, HAZEN_WILLIAMS_C_FLOOR) for s in self.pipeline.segments
         )
 
-    @cached_property
-    def _coefficients(self) -> list[tuple[float, float, float, float, float, float | None]]:
-        # Per segment: 4/(pi D^2), D/nu, eps/D, L/D, K, C; so head() does no lookups.
-        nu = self.pipeline.liquid.kinematic_viscosity
-        rows = []
-        for s, eps, k, c in zip(
-            self.pipeline.segments,
-            self.roughness,
-            self.pipeline.k_minor,
-            self.hazen_williams_c,
-            strict=True,
-        ):
-            D = s.diameter
-            rows.append((4.0 / (math.pi * D * D), D / nu, eps / D, s.length / D, k, c))
-        return rows
-
     @property
     def model(self) -> FrictionModel:
         return self.pipeline.model
@@ -190,25 +175,11 @@ class SystemCurve:
             Head the flow needs above the source, negative where gravity has spare. [m]
         """
         Q = np.asarray(flow, dtype=float)
-        absQ = np.abs(Q)
-        model = self.pipeline.model
-        diameters = [s.diameter for s in self.pipeline.segments]
-        loss_sum = np.zeros(Q.shape)  # sum of (f L/D + K) V^2 over segments
-        velocity = absQ
-        for (inv_area, d_over_nu, eD, l_over_d, k, c), D in zip(
-            self._coefficients, diameters, strict=True
-        ):
-            velocity = absQ * inv_area
-            Re = velocity * d_over_nu
-            f = friction_factor(model, Re, eD, velocity=velocity, diameter=D, hazen_williams_c=c)
-            f *= l_over_d
-            f += k
-            f *= velocity
-            f *= velocity
-            loss_sum += f
-        loss_sum += velocity * velocity  # outlet term on the last segment's velocity
-        loss_sum *= 1.0 / (2.0 * G)
-        return self.static_head + np.copysign(loss_sum, Q)
+        eD = [
+            eps / s.diameter for eps, s in zip(self.roughness, self.pipeline.segments, strict=True)
+        ]
+        losses = loss_sum(self.pipeline, np.abs(Q), eD, list(self.hazen_williams_c))
+        return self.static_head + np.copysign(losses, Q)
 
     def losses(self, flow: ArrayLike) -> list[SegmentLosses]:
         """Per-segment velocity, Re, f, friction and minor losses at each flow."""
@@ -246,6 +217,90 @@ class SystemCurve:
             if segment.suction:
                 total = total + loss.friction_loss + loss.minor_loss
         return total
+
+
+def loss_sum(
+    pipeline: Pipeline,
+    flow: FloatArray,
+    relative_roughness: list[Any],
+    hazen_williams_c: list[Any],
+) -> FloatArray:
+    """Friction, minor and outlet losses of the whole route at non-negative flows. [m]
+
+    ``relative_roughness[i]`` and ``hazen_williams_c[i]`` (segment i) are floats, or arrays
+    that broadcast against `flow` (one value per scenario of a batch). One vectorised pass
+    per segment: sum of (f L/D + K) V^2, plus the outlet's V^2, over 2g.
+    """
+    model = pipeline.model
+    nu = pipeline.liquid.kinematic_viscosity
+    total = np.zeros(np.broadcast_shapes(flow.shape, *(np.shape(e) for e in relative_roughness)))
+    velocity = flow
+    for segment, k, eD, c in zip(
+        pipeline.segments, pipeline.k_minor, relative_roughness, hazen_williams_c, strict=True
+    ):
+        D = segment.diameter
+        velocity = flow * (4.0 / (math.pi * D * D))
+        f = friction_factor(
+            model, velocity * (D / nu), eD, velocity=velocity, diameter=D, hazen_williams_c=c
+        )
+        f = f * (segment.length / D)
+        f += k
+        f *= velocity
+        f *= velocity
+        total += f
+    total += velocity * velocity  # outlet term on the last segment's velocity
+    total *= 1.0 / (2.0 * G)
+    return total
+
+
+@dataclass(frozen=True)
+class ScenarioBatch:
+    """Many scenarios of one pipeline at once, for vectorised operating-point solves.
+
+    Parameters
+    ----------
+    pipeline : Pipeline
+    scenarios : tuple of Scenario
+    """
+
+    pipeline: Pipeline
+    scenarios: tuple[Scenario, ...]
+
+    @cached_property
+    def static_head(self) -> FloatArray:
+        """Static head of each scenario, shape (n,). [m]"""
+        return np.array([SystemCurve(self.pipeline, s).static_head for s in self.scenarios])
+
+    @cached_property
+    def _per_segment(self) -> tuple[list[FloatArray], list[Any]]:
+        curves = [SystemCurve(self.pipeline, s) for s in self.scenarios]
+        eD = [
+            np.array([c.roughness[i] for c in curves]) / seg.diameter
+            for i, seg in enumerate(self.pipeline.segments)
+        ]
+        cs: list[Any] = [
+            None
+            if seg.hazen_williams_c is None
+            else np.array([c.hazen_williams_c[i] for c in curves], dtype=float)
+            for i, seg in enumerate(self.pipeline.segments)
+        ]
+        return eD, cs
+
+    def head_each(self, flow: ArrayLike) -> FloatArray:
+        """H_sys of scenario i at flow[i]; `flow` has shape (n,). [m]"""
+        Q = np.asarray(flow, dtype=float)
+        eD, cs = self._per_segment
+        return self.static_head + np.copysign(loss_sum(self.pipeline, np.abs(Q), eD, cs), Q)
+
+    def head_grid(self, flow: ArrayLike) -> FloatArray:
+        """H_sys of every scenario at every flow: shape (n, m) for `flow` of shape (m,). [m]"""
+        Q = np.asarray(flow, dtype=float)[None, :]
+        eD, cs = self._per_segment
+        eD2 = [e[:, None] for e in eD]
+        cs2 = [None if c is None else c[:, None] for c in cs]
+        return self.static_head[:, None] + np.copysign(
+            loss_sum(self.pipeline, np.abs(Q), eD2, cs2), Q
+        )
 
 
 def build_scenarios(

@@ -140,8 +140,10 @@ def test_system_head_increases_with_flow(
     area = min(s.area for s in named)
     d = min(s.diameter for s in named)
     flows = np.geomspace(1e-3, 1e8, 400) * nu / d * area
-    heads = curve.head(flows)
-    assert np.all(np.diff(heads) > 0)
+    assert np.all(np.diff(curve.head(flows)) >= 0)
+    # strictly on the losses alone: a static head would swamp the tiniest in rounding
+    losses = Pipeline(liquid, named, MODELS[model]).at(Scenario("x", 0.0, 0.0)).head(flows)
+    assert np.all(np.diff(losses) > 0)
 
 
 @settings(max_examples=40, deadline=None)
