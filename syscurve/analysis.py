@@ -13,6 +13,7 @@ from .gravity import (
     required_source_level,
     smallest_diameter,
 )
+from .pumping import OperatingPoint, operating_points, pump_cautions, required_duties
 from .results import GravityVerdict, NodePressure, Report, ScenarioResult, SegmentResult
 from .system import SystemCurve
 from .units import G
@@ -207,6 +208,12 @@ def analyze(case: Case) -> Report:
     warnings += velocity_warnings(case, results)
     warnings += pressure_warnings(case, results)
     cautions = list(STANDING_CAUTIONS)
+    points: list[OperatingPoint] = []
+    if case.pump_part.arrangements:
+        points = operating_points(case)
+        cautions += pump_cautions(case, points)
+        for pump in case.pump_part.pumps:
+            warnings += [f"pump '{pump.name}': {w}" for w in pump.warnings()]
     return Report(
         case=case,
         scenarios=results,
@@ -214,4 +221,6 @@ def analyze(case: Case) -> Report:
         sizing=size_for_gravity(case, results),
         warnings=_unique(warnings),
         cautions=cautions,
+        operating_points=points,
+        duties=required_duties(case.demand, results),
     )

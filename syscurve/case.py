@@ -24,6 +24,7 @@ from .fields import Reader
 from .friction import HAZEN_WILLIAMS_TEMPERATURE_RANGE, MODELS, FrictionModel
 from .liquid import Liquid, water_at
 from .pipe import Segment
+from .pumpcase import PumpPart, read_pump_part
 from .system import OUTLETS, Pipeline, Scenario, build_scenarios
 from .units import P_STANDARD, ZERO_CELSIUS, head_from_pressure
 
@@ -87,7 +88,7 @@ class Case:
     sizing_segments: frozenset[str] | None
     warnings: tuple[str, ...] = ()
     base_dir: Path | None = None
-    extras: dict[str, Any] = field(default_factory=dict)
+    pump_part: PumpPart = field(default_factory=PumpPart)
 
     @property
     def liquid(self) -> Liquid:
@@ -220,6 +221,7 @@ def case_from_dict(data: dict[str, Any], base_dir: Path | None = None) -> Case:
     transitions = r.string(pipe, "transitions", "pipe", default="auto", choices=("auto", "none"))
 
     segments = _read_segments(r, data, model)
+    pump_part = read_pump_part(r, data, base_dir)
     velocity_range = _read_checks(r, data)
     candidates, sizing_segments = _read_sizing(r, data, segments)
 
@@ -272,6 +274,7 @@ def case_from_dict(data: dict[str, Any], base_dir: Path | None = None) -> Case:
         sizing_segments=sizing_segments,
         warnings=tuple(r.warnings),
         base_dir=base_dir,
+        pump_part=pump_part,
     )
 
 

@@ -76,6 +76,6 @@ def nearest_names(name: object, names: Iterable[str], count: int = 3) -> list[st
 
 
 def did_you_mean(name: object, names: Iterable[str]) -> str:
-    """"did you mean 'a' or 'b'? " (with the trailing space), or "" when nothing is close."""
+    """ "did you mean 'a' or 'b'? " (with the trailing space), or "" when nothing is close."""
     close = nearest_names(name, names)
     return f"did you mean {' or '.join(repr(c) for c in close)}? " if close else ""

@@ -9,6 +9,8 @@ import numpy as np
 
 from .case import Case
 from .gravity import DiameterChoice
+from .pump import PumpCurve
+from .pumping import Duty, OperatingPoint
 from .system import SystemCurve
 
 REPORT_FORMAT = 1
@@ -85,8 +87,8 @@ class Report:
     sizing: DiameterChoice | None
     warnings: list[str]
     cautions: list[str]
-    operating_points: list[Any] = field(default_factory=list)
-    extras: dict[str, Any] = field(default_factory=dict)
+    operating_points: list[OperatingPoint] = field(default_factory=list)
+    duties: list[Duty] = field(default_factory=list)
 
     def scenario(self, name: str) -> ScenarioResult:
         """The result of the scenario called `name`."""
@@ -153,13 +155,12 @@ class Report:
                 "system_head_at_demand_m": self.sizing.head_at_demand,
                 "segments": list(self.sizing.segments),
             },
-            "operating_points": [
-                p.to_dict() if hasattr(p, "to_dict") else p for p in self.operating_points
-            ],
+            "required_duty": [d.to_dict() for d in self.duties],
+            "pumps": [_pump_dict(p) for p in case.pump_part.pumps],
+            "operating_points": [p.to_dict() for p in self.operating_points],
             "warnings": list(self.warnings),
             "cautions": list(self.cautions),
         }
-        data.update(self.extras)
         return data
 
 
@@ -206,4 +207,29 @@ def _scenario_dict(result: ScenarioResult) -> dict[str, Any]:
             "flow_m3_s": np.asarray(result.curve_flow).tolist(),
             "head_m": np.asarray(result.curve_head).tolist(),
         },
+    }
+
+
+def _pump_dict(pump: PumpCurve) -> dict[str, Any]:
+    return {
+        "name": pump.name,
+        "speed_rpm": pump.speed_rpm,
+        "source": pump.source,
+        "shutoff_head_m": pump.shutoff_head,
+        "max_flow_m3_s": pump.max_flow,
+        "bep_flow_m3_s": pump.bep_flow,
+        "bep_head_m": pump.bep_head,
+        "bep_efficiency": pump.bep_efficiency,
+        "unstable": pump.unstable,
+        "fit": "PCHIP (monotone piecewise cubic through every point)",
+        "max_leave_one_out_head_residual_m": pump.max_head_residual,
+        "points": {
+            "flow_m3_s": pump.flow.tolist(),
+            "head_m": pump.head.tolist(),
+            "efficiency": None if pump.efficiency is None else pump.efficiency.tolist(),
+            "npsh_required_m": None
+            if pump.npsh_required is None
+            else [None if v != v else v for v in pump.npsh_required.tolist()],
+        },
+        "warnings": pump.warnings(),
     }

@@ -5,6 +5,7 @@ from __future__ import annotations
 import textwrap
 from collections.abc import Sequence
 
+from .pumping import OperatingPoint
 from .results import Report
 from .units import Display, format_number
 
@@ -166,6 +167,9 @@ def summary_text(report: Report, units: str | None = None) -> str:
             rows,
         )
     )
+    if report.operating_points or report.case.pump_part.pumps:
+        out.append("")
+        out.append(pump_sections(report, d))
     out.append("")
     out.append("WARNINGS")
     out.append(_bullets(report.warnings))
@@ -173,3 +177,65 @@ def summary_text(report: Report, units: str | None = None) -> str:
     out.append("CAUTIONS")
     out.append(_bullets(report.cautions))
     return "\n".join(out) + "\n"
+
+
+def duty_sentence(report: Report, display: Display) -> str:
+    """The pump duty to ask for, in plain words."""
+    needed = [d for d in report.duties if d.needed]
+    if not needed:
+        return "No pump is needed: gravity alone meets the demand in every scenario."
+    worst = max(needed, key=lambda d: d.head)
+    others = ", ".join(
+        f"{d.scenario} {display.text('head', d.head)}" for d in needed if d is not worst
+    )
+    also = f" (also needed in {others})" if others else ""
+    return (
+        f"Required pump duty: {display.text('head', worst.head)} at "
+        f"{display.text('flow', worst.flow)} in {worst.scenario}{also}."
+    )
+
+
+def pump_sections(report: Report, d: Display) -> str:
+    """Required duty, the pumps and the operating-point table."""
+    from .tables import columns, format_cell, row_values
+
+    out = ["PUMPS", "  " + duty_sentence(report, d)]
+    for pump in report.case.pump_part.pumps:
+        bep = (
+            f"BEP {d.text('flow', pump.bep_flow)} at {d.text('head', pump.bep_head)}, "
+            f"{pump.bep_efficiency:.0%}"
+            if pump.bep_flow is not None and pump.bep_efficiency is not None
+            else "no efficiency data"
+        )
+        shutoff = d.text("head", pump.shutoff_head)
+        out.append(
+            f"  {pump.name}: {pump.speed_rpm:.0f} rpm, shutoff {shutoff}, "
+            f"{bep}; fit PCHIP, largest leave-one-out head residual "
+            f"{d.text('head', pump.max_head_residual, 2)}"
+            + (f"; {pump.source}" if pump.source else "")
+        )
+    if not report.operating_points:
+        return "\n".join(out)
+    cols = columns(d, report.case.pump_part.operation.currency)
+    shown = [0, 1, 2, 3, 4, 5, 7, 8, 9, 10, 12, 13, 16]
+    headers = [cols[i].header for i in shown]
+    rows: list[list[str]] = []
+    notes: list[tuple[int, OperatingPoint]] = []
+    for point in report.operating_points:
+        values = row_values(point, d)
+        cells = [format_cell(values[i], cols[i]) or "-" for i in shown]
+        if point.warnings:
+            notes.append((len(notes) + 1, point))
+            cells[2] += f" [{len(notes)}]"
+        rows.append(cells)
+    out += ["", "OPERATING POINTS", text_table(headers, rows)]
+    for number, point in notes:
+        out.append(
+            textwrap.fill(
+                f"[{number}] {point.arrangement}, {point.scenario}: " + "; ".join(point.warnings),
+                width=96,
+                initial_indent="  ",
+                subsequent_indent="      ",
+            )
+        )
+    return "\n".join(out)

@@ -292,6 +292,16 @@ class ScenarioBatch:
         eD, cs = self._per_segment
         return self.static_head + np.copysign(loss_sum(self.pipeline, np.abs(Q), eD, cs), Q)
 
+    def head_of(self, index: ArrayLike, flow: ArrayLike) -> FloatArray:
+        """H_sys of scenario index[k] at flow[k] (same shapes). [m]"""
+        i = np.asarray(index, dtype=int)
+        Q = np.asarray(flow, dtype=float)
+        eD, cs = self._per_segment
+        losses = loss_sum(
+            self.pipeline, np.abs(Q), [e[i] for e in eD], [None if c is None else c[i] for c in cs]
+        )
+        return self.static_head[i] + np.copysign(losses, Q)
+
     def head_grid(self, flow: ArrayLike) -> FloatArray:
         """H_sys of every scenario at every flow: shape (n, m) for `flow` of shape (m,). [m]"""
         Q = np.asarray(flow, dtype=float)[None, :]

@@ -35,6 +35,7 @@ _DEFINITIONS = (
     "gallon_per_minute = gallon / minute = gpm = usgpm",
     "imperial_gallon_per_minute = imperial_gallon / minute = igpm",
     "million_gallon_per_day = 1e6 * gallon / day = MGD",
+    "thousand_gallon = 1000 * gallon = kgal",
     "psi_gauge = psi = psig",
     "psi_absolute = psi = psia",
 )
@@ -324,7 +325,7 @@ DISPLAY_SYSTEMS: dict[str, dict[str, tuple[str, str]]] = {
         "temperature": ("degF", "°F"),
         "energy": ("kWh", "kWh"),
         "volume": ("gallon", "US gal"),
-        "specific_energy": ("kWh/(1000*gallon)", "kWh/1000 US gal"),
+        "specific_energy": ("kWh/kgal", "kWh/1000 US gal"),
     },
 }
 

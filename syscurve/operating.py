@@ -1,0 +1,315 @@
+"""Operating points: where an arrangement's curve meets the system curve, per scenario.
+
+The solver is vectorised over scenarios. For an arrangement of identical units the
+difference D(Q) = H_pump(Q) - H_sys(Q) is tabulated on a grid from zero to twice the
+end of the pump data (every scenario at once); each sign change brackets an
+intersection, refined by the Illinois variant of regula falsi to 1e-12 of the flow
+range. All intersections are kept: a drooping (unstable) curve can meet a system
+curve twice. Beyond the last data point the pump curve continues as a straight line
+with its end slope, only so that the status `outside-curve` can say where the point
+would lie.
+
+For `speed = "for-demand"` the speed ratio r is solved on the real system curve:
+H_pump(Q_d; r) = s r^2 h(Q_d / (p r)) = H_sys(Q_d), with p units in parallel or s in
+series, never along an affinity parabola through the origin (which overstates the
+saving when there is static head).
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable
+from dataclasses import dataclass
+
+import numpy as np
+from numpy.typing import NDArray
+
+from .arrangement import Arrangement, Combined, mixed_parallel_flows
+from .roots import NoBracket, brent
+from .system import ScenarioBatch
+
+FloatArray = NDArray[np.float64]
+IntArray = NDArray[np.int_]
+
+#: Points of the grid that brackets intersections (0 to twice the data end).
+GRID_POINTS = 129
+#: Search range beyond the pump data, as a multiple of its last flow.
+SEARCH_FACTOR = 2.0
+
+
+@dataclass(frozen=True)
+class Solution:
+    """The raw answer for one arrangement in one scenario (before the details)."""
+
+    scenario_index: int
+    status: str  # ok | no-intersection | several-intersections | outside-curve | not-needed
+    flow: float | None  # [m^3/s]
+    head: float | None  # [m]
+    speed_ratio: float  # of the arrangement's speed
+    intersections: tuple[float, ...] = ()
+    reason: str = ""
+
+
+def illinois(
+    function: Callable[[FloatArray, IntArray], FloatArray],
+    a: FloatArray,
+    b: FloatArray,
+    fa: FloatArray,
+    fb: FloatArray,
+    context: IntArray,
+    xtol: float,
+    ftol: float = 1e-10,
+    max_iterations: int = 100,
+) -> FloatArray:
+    """Roots of many bracketed functions at once (Illinois regula falsi, vectorised).
+
+    `function(x, context)` evaluates each problem k at x[k]; brackets [a, b] must
+    change sign. Converges superlinearly; each bracket shrinks every step.
+
+    References
+    ----------
+    .. [1] Dowell, M. & Jarratt, P. (1971). A modified regula falsi method for
+       computing the root of an equation. BIT 11, 168-174.
+    """
+    a, b, fa, fb = (np.array(v, dtype=float) for v in (a, b, fa, fb))
+    done = (fb == 0) | (np.abs(b - a) <= xtol)
+    for _ in range(max_iterations):
+        if done.all():
+            break
+        c = b - fb * (b - a) / (fb - fa)
+        c = np.where(np.isfinite(c), c, 0.5 * (a + b))
+        fc = function(c, context)
+        flip = fc * fb < 0
+        a = np.where(done, a, np.where(flip, b, a))
+        fa = np.where(done, fa, np.where(flip, fb, 0.5 * fa))
+        b = np.where(done, b, c)
+        fb = np.where(done, fb, fc)
+        done |= (np.abs(fb) <= ftol) | (np.abs(b - a) <= xtol)
+    return b
+
+
+def _brackets(
+    difference: FloatArray, grid: FloatArray
+) -> tuple[IntArray, FloatArray, FloatArray, FloatArray, FloatArray, IntArray, FloatArray]:
+    """Sign changes of `difference` (scenarios x grid): brackets, and exact zeros."""
+    sign = np.sign(difference)
+    change = sign[:, :-1] * sign[:, 1:] < 0
+    s, j = np.nonzero(change)
+    zs, zj = np.nonzero(sign == 0)
+    return (
+        s,
+        grid[j],
+        grid[j + 1],
+        difference[s, j],
+        difference[s, j + 1],
+        zs,
+        grid[zj],
+    )
+
+
+def solve_fixed_speed(
+    batch: ScenarioBatch, combined: Combined, speed_ratio: float = 1.0
+) -> list[Solution]:
+    """Every intersection of an identical-unit arrangement with every scenario's curve."""
+    n = len(batch.scenarios)
+    q_end = combined.max_flow
+    grid = np.linspace(0.0, SEARCH_FACTOR * q_end, GRID_POINTS)
+    difference = combined.head(grid)[None, :] - batch.head_grid(grid)
+    s, a, b, fa, fb, zero_s, zero_q = _brackets(difference, grid)
+
+    def d(q: FloatArray, index: IntArray) -> FloatArray:
+        return combined.head(q) - batch.head_of(index, q)
+
+    roots = illinois(d, a, b, fa, fb, s, xtol=1e-12 * q_end) if s.size else np.empty(0)
+    found: list[list[float]] = [[] for _ in range(n)]
+    for index, q in zip(np.r_[s, zero_s], np.r_[roots, zero_q], strict=True):
+        found[int(index)].append(float(q))
+    solutions = []
+    static = batch.static_head
+    for i in range(n):
+        flows = sorted(q for q in found[i] if q > 1e-12 * q_end)
+        if not flows:
+            solutions.append(
+                _no_intersection(i, combined, float(static[i]), speed_ratio, grid, difference[i])
+            )
+            continue
+        flow = flows[0]
+        head = float(combined.head(flow))
+        beyond = flow > q_end * (1 + 1e-9) or flow < combined.min_flow * (1 - 1e-9)
+        status = (
+            "outside-curve" if beyond else ("several-intersections" if len(flows) > 1 else "ok")
+        )
+        solutions.append(Solution(i, status, flow, head, speed_ratio, tuple(flows)))
+    return solutions
+
+
+def _no_intersection(
+    index: int,
+    combined: Combined,
+    static: float,
+    ratio: float,
+    grid: FloatArray,
+    difference: FloatArray,
+) -> Solution:
+    shutoff = combined.shutoff_head
+    if difference[-1] > 0:  # pump still above the system at twice its data range
+        reason = (
+            f"the pump curve stays above the system curve beyond twice its last point "
+            f"({grid[-1] * 1000:.3g} L/s); the point lies far outside the data"
+        )
+        return Solution(index, "outside-curve", None, None, ratio, (), reason)
+    if shutoff <= static:
+        reason = f"shutoff head {shutoff:.3g} m is below the static head {static:.3g} m"
+    else:
+        reason = "the pump curve stays below the system curve"
+    return Solution(index, "no-intersection", None, None, ratio, (), reason)
+
+
+def solve_for_demand(
+    batch: ScenarioBatch, arrangement: Arrangement, demand: float
+) -> list[Solution]:
+    """Per scenario, the speed at which the arrangement delivers `demand` [m^3/s].
+
+    The speed is limited to the arrangement's speed (its curve's, unless given).
+    """
+    base = arrangement.units_at(1.0)[0]
+    combined = Combined(base, arrangement.count, arrangement.connection)
+    required = batch.head_each(np.full(len(batch.scenarios), demand))
+    ratios = np.linspace(0.02, 1.0, 197)
+    unit_flow = demand / combined.parallel_units
+    head_at_ratio = combined.series_units * ratios**2 * base.head_at(unit_flow / ratios, True)
+
+    def head_of_ratio(r: FloatArray) -> FloatArray:
+        return combined.series_units * r**2 * base.head_at(unit_flow / r, True)
+
+    solutions = []
+    for i, needed in enumerate(required):
+        needed = float(needed)
+        if needed <= 0:
+            solutions.append(
+                Solution(
+                    i,
+                    "not-needed",
+                    None,
+                    None,
+                    0.0,
+                    (),
+                    (
+                        f"gravity alone delivers the demand here (system head at the demand "
+                        f"{needed:.3g} m); the pump need not run"
+                    ),
+                )
+            )
+            continue
+        gap = head_at_ratio - needed
+        above = np.nonzero(gap >= 0)[0]
+        if above.size == 0:
+            solutions.append(
+                Solution(
+                    i,
+                    "no-intersection",
+                    None,
+                    None,
+                    1.0,
+                    (),
+                    (
+                        f"even at full speed the arrangement gives {head_at_ratio[-1]:.3g} m "
+                        f"at the demand; the system needs {needed:.3g} m"
+                    ),
+                )
+            )
+            continue
+        k = int(above[0])
+        if k == 0:
+            ratio = float(ratios[0])
+        else:
+
+            def shortfall(r: float, target: float = needed) -> float:
+                return float(head_of_ratio(np.array(r))) - target
+
+            ratio = brent(shortfall, float(ratios[k - 1]), float(ratios[k]))
+        beyond = unit_flow / ratio > base.max_flow * (1 + 1e-9)
+        status = "outside-curve" if beyond else "ok"
+        solutions.append(Solution(i, status, demand, needed, ratio, (demand,)))
+    return solutions
+
+
+def solve_mixed_parallel(batch: ScenarioBatch, arrangement: Arrangement) -> list[Solution]:
+    """Different pumps in parallel: solve in head space, H = H_sys(sum of q_i(H))."""
+    units = arrangement.units_at(1.0)
+    top = max(u.max_head for u in units)
+    solutions = []
+    for i in range(len(batch.scenarios)):
+        index = np.array([i])
+
+        def gap(head: float, index: IntArray = index) -> float:
+            total = sum(mixed_parallel_flows(units, head))
+            return head - float(batch.head_of(index, np.array([total]))[0])
+
+        low = float(batch.static_head[i])
+        if gap(top) <= 0:
+            solutions.append(
+                Solution(
+                    i,
+                    "no-intersection",
+                    None,
+                    None,
+                    1.0,
+                    (),
+                    (f"the highest shutoff head {top:.3g} m is below the static head {low:.3g} m"),
+                )
+            )
+            continue
+        try:
+            head = brent(gap, min(low, 0.0) - 10.0 * top, top)
+        except NoBracket:
+            solutions.append(
+                Solution(
+                    i,
+                    "outside-curve",
+                    None,
+                    None,
+                    1.0,
+                    (),
+                    "the point lies far beyond the pumps' data",
+                )
+            )
+            continue
+        flows = mixed_parallel_flows(units, head)
+        total = sum(flows)
+        beyond = any(q > u.max_flow * (1 + 1e-9) for q, u in zip(flows, units, strict=True))
+        if total <= 0:
+            solutions.append(
+                Solution(
+                    i,
+                    "no-intersection",
+                    None,
+                    None,
+                    1.0,
+                    (),
+                    (f"no pump's shutoff head exceeds the static head {low:.3g} m"),
+                )
+            )
+            continue
+        status = "outside-curve" if beyond else "ok"
+        solutions.append(Solution(i, status, total, head, 1.0, (total,)))
+    return solutions
+
+
+def solve(batch: ScenarioBatch, arrangement: Arrangement, demand: float) -> list[Solution]:
+    """Solutions of one arrangement in every scenario of `batch`."""
+    if not arrangement.identical:
+        return solve_mixed_parallel(batch, arrangement)
+    if arrangement.for_demand:
+        return solve_for_demand(batch, arrangement, demand)
+    unit = arrangement.units_at(1.0)[0]
+    return solve_fixed_speed(batch, Combined(unit, arrangement.count, arrangement.connection))
+
+
+def min_speed_ratio(static_head: float, shutoff_head: float) -> float:
+    """Speed ratio below which the pumps cannot overcome `static_head` (affinity: H ~ N^2).
+
+    0 when the static head is not positive (gravity already starts the flow).
+    """
+    if static_head <= 0:
+        return 0.0
+    return float(np.sqrt(static_head / shutoff_head)) if shutoff_head > 0 else float("inf")
