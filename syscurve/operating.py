@@ -24,6 +24,7 @@ import numpy as np
 from numpy.typing import NDArray
 
 from .arrangement import Arrangement, Combined, mixed_parallel_flows
+from .pump import PumpCurve
 from .roots import NoBracket, brent
 from .system import ScenarioBatch
 
@@ -112,7 +113,11 @@ def solve_fixed_speed(
     """Every intersection of an identical-unit arrangement with every scenario's curve."""
     n = len(batch.scenarios)
     q_end = combined.max_flow
-    grid = np.linspace(0.0, SEARCH_FACTOR * q_end, GRID_POINTS)
+    # A head curve that never rises meets the rising system curve once at most, so the
+    # ends of the search range bracket it; a curve that rises anywhere is searched on a
+    # grid for every crossing.
+    falling = bool(np.all(np.diff(combined.unit.head) <= 0))
+    grid = np.linspace(0.0, SEARCH_FACTOR * q_end, 2 if falling else GRID_POINTS)
     difference = combined.head(grid)[None, :] - batch.head_grid(grid)
     s, a, b, fa, fb, zero_s, zero_q = _brackets(difference, grid)
 
@@ -123,23 +128,39 @@ def solve_fixed_speed(
     found: list[list[float]] = [[] for _ in range(n)]
     for index, q in zip(np.r_[s, zero_s], np.r_[roots, zero_q], strict=True):
         found[int(index)].append(float(q))
-    solutions = []
     static = batch.static_head
-    for i in range(n):
-        flows = sorted(q for q in found[i] if q > 1e-12 * q_end)
+    kept = [sorted(q for q in found[i] if q > 1e-12 * q_end) for i in range(n)]
+    first = np.array([flows[0] if flows else 0.0 for flows in kept])
+    heads = combined.head(first)
+    solutions = []
+    for i, flows in enumerate(kept):
         if not flows:
             solutions.append(
                 _no_intersection(i, combined, float(static[i]), speed_ratio, grid, difference[i])
             )
             continue
         flow = flows[0]
-        head = float(combined.head(flow))
         beyond = flow > q_end * (1 + 1e-9) or flow < combined.min_flow * (1 - 1e-9)
         status = (
             "outside-curve" if beyond else ("several-intersections" if len(flows) > 1 else "ok")
         )
-        solutions.append(Solution(i, status, flow, head, speed_ratio, tuple(flows)))
+        solutions.append(Solution(i, status, flow, float(heads[i]), speed_ratio, tuple(flows)))
     return solutions
+
+
+def beyond_reason(search_end: float) -> str:
+    """Why there is no point within the search range: the pump stays above the system."""
+    return (
+        "the pump curve stays above the system curve beyond twice its last point "
+        f"({search_end * 1000:.3g} L/s); the point lies far outside the data"
+    )
+
+
+def below_reason(shutoff: float, static: float) -> str:
+    """Why there is no point: the pump stays below the system curve."""
+    if shutoff <= static:
+        return f"shutoff head {shutoff:.3g} m is below the static head {static:.3g} m"
+    return "the pump curve stays below the system curve"
 
 
 def _no_intersection(
@@ -150,17 +171,9 @@ def _no_intersection(
     grid: FloatArray,
     difference: FloatArray,
 ) -> Solution:
-    shutoff = combined.shutoff_head
     if difference[-1] > 0:  # pump still above the system at twice its data range
-        reason = (
-            f"the pump curve stays above the system curve beyond twice its last point "
-            f"({grid[-1] * 1000:.3g} L/s); the point lies far outside the data"
-        )
-        return Solution(index, "outside-curve", None, None, ratio, (), reason)
-    if shutoff <= static:
-        reason = f"shutoff head {shutoff:.3g} m is below the static head {static:.3g} m"
-    else:
-        reason = "the pump curve stays below the system curve"
+        return Solution(index, "outside-curve", None, None, ratio, (), beyond_reason(grid[-1]))
+    reason = below_reason(combined.shutoff_head, static)
     return Solution(index, "no-intersection", None, None, ratio, (), reason)
 
 
@@ -293,6 +306,105 @@ def solve_mixed_parallel(batch: ScenarioBatch, arrangement: Arrangement) -> list
         status = "outside-curve" if beyond else "ok"
         solutions.append(Solution(i, status, total, head, 1.0, (total,)))
     return solutions
+
+
+def _falling(curve: PumpCurve) -> bool:
+    """True when the head never rises with flow (then it meets a system curve once)."""
+    return bool(np.all(np.diff(curve.head) <= 0))
+
+
+def solve_falling_group(
+    batch: ScenarioBatch, base: PumpCurve, arrangements: list[Arrangement]
+) -> list[list[Solution]]:
+    """Fixed-speed arrangements of one falling pump curve, all scenarios in one solve.
+
+    Each arrangement's curve is s r^2 h(Q / (p r)) of the base curve h (affinity laws;
+    PCHIP commutes with that scaling, so this equals the refitted curve), so every
+    (arrangement, scenario) pair is one element of a single vectorised Illinois solve
+    on [0, twice the data end], where the falling pump curve meets the rising system
+    curve once at most.
+    """
+    n = len(batch.scenarios)
+    ratio = np.array([(a.speed_rpm or base.speed_rpm) / base.speed_rpm for a in arrangements])
+    combos = [Combined(base, a.count, a.connection) for a in arrangements]
+    parallel = np.array([c.parallel_units for c in combos], dtype=float)
+    series = np.array([c.series_units for c in combos], dtype=float)
+    pair_arrangement = np.repeat(np.arange(len(arrangements)), n)
+    pair_scenario = np.tile(np.arange(n), len(arrangements))
+    r, p, s = ratio[pair_arrangement], parallel[pair_arrangement], series[pair_arrangement]
+    q_end = base.max_flow * r * p
+
+    def pump_head(flow: FloatArray, k: IntArray) -> FloatArray:
+        return s[k] * r[k] ** 2 * base.head_at(flow / (p[k] * r[k]), True)
+
+    def difference(flow: FloatArray, k: IntArray) -> FloatArray:
+        return pump_head(flow, k) - batch.head_of(pair_scenario[k], flow)
+
+    every = np.arange(pair_arrangement.size)
+    upper = SEARCH_FACTOR * q_end
+    at_zero = difference(np.zeros(every.size), every)
+    at_upper = difference(upper, every)
+    bracketed = np.nonzero((at_zero > 0) & (at_upper < 0))[0]
+    flow = np.full(every.size, np.nan)
+    flow[at_upper == 0] = upper[at_upper == 0]
+    if bracketed.size:
+        flow[bracketed] = illinois(
+            difference,
+            np.zeros(bracketed.size),
+            upper[bracketed],
+            at_zero[bracketed],
+            at_upper[bracketed],
+            bracketed,
+            xtol=1e-12 * float(q_end.max()),
+        )
+    known = np.isfinite(flow)
+    head = np.full(every.size, np.nan)
+    head[known] = pump_head(flow[known], every[known])
+    static = batch.static_head
+    results: list[list[Solution]] = []
+    for a in range(len(arrangements)):
+        group = []
+        for i in range(n):
+            k = a * n + i
+            if np.isfinite(flow[k]):
+                q = float(flow[k])
+                beyond = q > q_end[k] * (1 + 1e-9) or q < base.flow[0] * r[k] * p[k] * (1 - 1e-9)
+                status = "outside-curve" if beyond else "ok"
+                group.append(Solution(i, status, q, float(head[k]), 1.0, (q,)))
+            elif at_upper[k] > 0:
+                reason = beyond_reason(float(upper[k]))
+                group.append(Solution(i, "outside-curve", None, None, 1.0, (), reason))
+            else:
+                shutoff = float(s[k] * r[k] ** 2 * base.shutoff_head)
+                reason = below_reason(shutoff, float(static[i]))
+                group.append(Solution(i, "no-intersection", None, None, 1.0, (), reason))
+        results.append(group)
+    return results
+
+
+def solve_all(
+    batch: ScenarioBatch, arrangements: list[Arrangement] | tuple[Arrangement, ...], demand: float
+) -> list[list[Solution]]:
+    """Solutions of every arrangement in every scenario (same order as `arrangements`).
+
+    Fixed-speed arrangements of identical pumps with falling curves are solved together
+    per pump curve (`solve_falling_group`); the others one by one (`solve`).
+    """
+    results: dict[int, list[Solution]] = {}
+    groups: dict[int, list[int]] = {}
+    for index, arrangement in enumerate(arrangements):
+        base = arrangement.pumps[0]
+        if arrangement.identical and not arrangement.for_demand and _falling(base):
+            groups.setdefault(id(base), []).append(index)
+        else:
+            results[index] = solve(batch, arrangement, demand)
+    for members in groups.values():
+        chosen = [arrangements[i] for i in members]
+        for index, solutions in zip(
+            members, solve_falling_group(batch, chosen[0].pumps[0], chosen), strict=True
+        ):
+            results[index] = solutions
+    return [results[i] for i in range(len(arrangements))]
 
 
 def solve(batch: ScenarioBatch, arrangement: Arrangement, demand: float) -> list[Solution]:

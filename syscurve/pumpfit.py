@@ -128,7 +128,7 @@ class Pchip:
         """Values at `xq`; outside [x[0], x[-1]] NaN, or the end tangent line if `extrapolate`."""
         xq = np.asarray(xq, dtype=float)
         x, c = self.x, self._coefficients
-        i = np.clip(np.searchsorted(x, xq, side="right") - 1, 0, len(x) - 2)
+        i = np.minimum(np.maximum(np.searchsorted(x, xq, side="right") - 1, 0), len(x) - 2)
         t = (xq - x[i]) / (x[i + 1] - x[i])
         values = ((c[0, i] * t + c[1, i]) * t + c[2, i]) * t + c[3, i]
         below, above = xq < x[0], xq > x[-1]
@@ -272,7 +272,7 @@ def check_points(
                         f"must be 0 (or blank) at zero flow, got {eta * 100:g} % at {point(i)}",
                     )
             elif not 0 < eta <= 1:
-                hint = " (efficiency is a fraction here: 0.72 for 72 %)" if eta > 1.5 else ""
+                hint = " (efficiency is a fraction here: 0.72 for 72 %)" if eta >= 5 else ""
                 problems.add(
                     f"{key}.efficiency",
                     f"must be above 0 and at most 100 % where the flow is positive; "

@@ -8,7 +8,7 @@ from typing import Any
 
 from .arrangement import Arrangement, Combined, mixed_parallel_flows
 from .npsh import NPSH_GUIDELINE_SOURCE, PREFERRED_REGION_SOURCE, npsh_available
-from .operating import Solution, min_speed_ratio, solve
+from .operating import Solution, min_speed_ratio, solve_all
 from .pump import PumpCurve
 from .system import ScenarioBatch
 from .units import G
@@ -159,11 +159,12 @@ class PointBuilder:
         hot = case.liquid_hot or case.liquid
         self.npsh_liquid = hot
         self.surface_pressure = case.barometric_pressure + case.source_gauge_pressure
+        self._unit_cache: dict[tuple[int, float], tuple[PumpCurve, ...]] = {}
 
     def build(self, arrangement: Arrangement, solution: Solution) -> OperatingPoint:
         scenario = self.batch.scenarios[solution.scenario_index]
         warnings: list[str] = []
-        units = arrangement.units_at(solution.speed_ratio or 1.0)
+        units = self._units(arrangement, solution.speed_ratio or 1.0)
         speed = units[0].speed_rpm if arrangement.identical else None
         base: dict[str, Any] = dict(
             arrangement=arrangement.name,
@@ -274,8 +275,14 @@ class PointBuilder:
             warnings=tuple(dict.fromkeys(warnings)),
         )
 
+    def _units(self, arrangement: Arrangement, ratio: float) -> tuple[PumpCurve, ...]:
+        key = (id(arrangement), ratio)
+        if key not in self._unit_cache:
+            self._unit_cache[key] = arrangement.units_at(ratio)
+        return self._unit_cache[key]
+
     def _min_speed(self, arrangement: Arrangement, solution: Solution) -> float:
-        units = arrangement.units_at(1.0)
+        units = self._units(arrangement, 1.0)
         combined = Combined(units[0], arrangement.count, arrangement.connection)
         static = float(self.batch.static_head[solution.scenario_index])
         return units[0].speed_rpm * min_speed_ratio(static, combined.shutoff_head)
@@ -369,11 +376,12 @@ def operating_points(case: Any) -> list[OperatingPoint]:
         return []
     batch = ScenarioBatch(case.pipeline, case.scenarios)
     builder = PointBuilder(case, batch)
-    points = []
-    for arrangement in part.arrangements:
-        for solution in solve(batch, arrangement, case.demand):
-            points.append(builder.build(arrangement, solution))
-    return points
+    solutions = solve_all(batch, part.arrangements, case.demand)
+    return [
+        builder.build(arrangement, solution)
+        for arrangement, group in zip(part.arrangements, solutions, strict=True)
+        for solution in group
+    ]
 
 
 def pump_cautions(case: Any, points: list[OperatingPoint]) -> list[str]:

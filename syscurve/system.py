@@ -181,28 +181,35 @@ class SystemCurve:
         losses = loss_sum(self.pipeline, np.abs(Q), eD, list(self.hazen_williams_c))
         return self.static_head + np.copysign(losses, Q)
 
-    def losses(self, flow: ArrayLike) -> list[SegmentLosses]:
-        """Per-segment velocity, Re, f, friction and minor losses at each flow."""
+    def losses(self, flow: ArrayLike, suction_only: bool = False) -> list[SegmentLosses]:
+        """Per-segment velocity, Re, f, friction and minor losses at each flow.
+
+        With `suction_only`, the leading segments marked suction only.
+        """
         nu = self.pipeline.liquid.kinematic_viscosity
-        return [
-            segment_losses(
-                flow,
-                length=s.length,
-                diameter=s.diameter,
-                roughness=eps,
-                k_minor=k,
-                model=self.pipeline.model,
-                kinematic_viscosity=nu,
-                hazen_williams_c=c,
+        results = []
+        for s, eps, k, c in zip(
+            self.pipeline.segments,
+            self.roughness,
+            self.pipeline.k_minor,
+            self.hazen_williams_c,
+            strict=True,
+        ):
+            if suction_only and not s.suction:
+                break  # suction segments come first
+            results.append(
+                segment_losses(
+                    flow,
+                    length=s.length,
+                    diameter=s.diameter,
+                    roughness=eps,
+                    k_minor=k,
+                    model=self.pipeline.model,
+                    kinematic_viscosity=nu,
+                    hazen_williams_c=c,
+                )
             )
-            for s, eps, k, c in zip(
-                self.pipeline.segments,
-                self.roughness,
-                self.pipeline.k_minor,
-                self.hazen_williams_c,
-                strict=True,
-            )
-        ]
+        return results
 
     def outlet_velocity_head(self, flow: ArrayLike) -> FloatArray:
         """V_out^2/(2g) on the last segment's velocity. [m]"""
@@ -213,9 +220,8 @@ class SystemCurve:
     def suction_loss(self, flow: ArrayLike) -> FloatArray:
         """Friction and minor losses of the suction segments (those marked suction). [m]"""
         total = np.zeros(np.shape(flow))
-        for segment, loss in zip(self.pipeline.segments, self.losses(flow), strict=True):
-            if segment.suction:
-                total = total + loss.friction_loss + loss.minor_loss
+        for loss in self.losses(flow, suction_only=True):
+            total = total + loss.friction_loss + loss.minor_loss
         return total
 
 

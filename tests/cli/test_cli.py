@@ -202,3 +202,95 @@ def test_module_entry_point_works_too(demo_file: Path) -> None:
         check=False,
     )
     assert result.returncode == 0 and json.loads(result.stdout)["format"] == 1
+
+
+# --- pumps ------------------------------------------------------------------------------
+
+
+def test_summary_shows_duty_pumps_and_operating_points(demo_file: Path) -> None:
+    result = run("analyze", str(demo_file))
+    assert result.returncode == 0
+    assert "Required pump duty:" in result.stdout
+    assert "OPERATING POINTS" in result.stdout
+    for arrangement in ("booster A", "2 x booster A parallel", "booster B at speed for demand"):
+        assert arrangement in result.stdout
+
+
+def test_json_operating_points_cover_every_arrangement_and_scenario(demo_file: Path) -> None:
+    report = json.loads(run("analyze", str(demo_file), "--json").stdout)
+    points = report["operating_points"]
+    assert len(points) == 9  # 3 arrangements x 3 scenarios
+    contract = {"arrangement", "pump", "count", "connection", "speed_rpm", "scenario", "status",
+                "flow_m3_s", "head_m", "flow_per_pump_m3_s", "head_per_pump_m", "efficiency",
+                "shaft_power_w", "bep_flow_ratio", "npsh_available_m", "npsh_required_m",
+                "npsh_margin_ratio", "meets_demand", "warnings"}
+    for point in points:
+        assert contract <= set(point)
+        assert point["status"] in {"ok", "no-intersection", "several-intersections",
+                                   "outside-curve", "not-needed"}
+    running = [p for p in points if p["status"] == "ok"]
+    assert all(p["efficiency"] and p["shaft_power_w"] and p["npsh_available_m"] for p in running)
+
+
+def test_table_csv_has_units_in_the_headers_and_a_row_per_point(
+    demo_file: Path, tmp_path: Path
+) -> None:
+    import csv
+
+    out = tmp_path / "ops.csv"
+    result = run("analyze", str(demo_file), "--table", str(out), "--units", "US")
+    assert result.returncode == 0, result.stderr
+    rows = list(csv.reader(out.open(encoding="utf-8")))
+    header = rows[0]
+    assert "flow [gpm]" in header and "head [ft]" in header and "shaft power [hp]" in header
+    assert "NPSH available [ft]" in header and "demand met" in header and "warnings" in header
+    assert len(rows) == 1 + 9
+
+
+def test_table_xlsx_reads_back(demo_file: Path, tmp_path: Path) -> None:
+    from openpyxl import load_workbook
+
+    out = tmp_path / "ops.xlsx"
+    assert run("analyze", str(demo_file), "--table", str(out)).returncode == 0
+    sheet = load_workbook(out)["operating points"]
+    rows = list(sheet.iter_rows(values_only=True))
+    assert rows[0][3] == "flow [L/s]"
+    assert len(rows) == 10
+    flows = [r[3] for r in rows[1:] if r[2] == "ok"]
+    assert all(isinstance(v, float) and v > 0 for v in flows)
+
+
+def test_table_with_an_unknown_suffix_exits_2(demo_file: Path, tmp_path: Path) -> None:
+    result = run("analyze", str(demo_file), "--table", str(tmp_path / "ops.ods"))
+    assert result.returncode == 2 and "write the table as .csv or .xlsx" in result.stderr
+
+
+@pytest.mark.parametrize(
+    ("pump", "arrangement", "expected"),
+    [
+        ({"flow": [0, 1]}, None, "pump[1].flow: needs at least 3 points"),
+        ({"flow": [0, 2, 1, 3]}, None, "pump[1].flow: must increase strictly"),
+        ({"head": [30, 29]}, None, "pump[1].head: has 2 values but flow has 4"),
+        ({"efficiency": [0, 40, 101, 50]}, None, "pump[1].efficiency: must be above 0"),
+        ({}, {"pump": "nobody"}, 'arrangement[1].pump: no pump is named "nobody"'),
+        ({}, {"pump": "p", "count": 0}, "arrangement[1].count: must be a whole number"),
+        ({"speed": "2900 kW"}, None, "pump[1].speed: expected a rotational speed"),
+    ],
+)
+def test_bad_pump_input_exits_2_naming_the_key(
+    tmp_path: Path, pump: dict[str, Any], arrangement: dict[str, Any] | None, expected: str
+) -> None:
+    import copy
+
+    from tests.conftest import MINIMAL
+
+    data = copy.deepcopy(MINIMAL)
+    base = {"name": "p", "speed": "2900 rpm", "flow_unit": "L/s", "head_unit": "m",
+            "flow": [0, 1, 2, 3], "head": [30, 29, 26, 20], "efficiency": [0, 40, 60, 55]}
+    data["pump"] = [{**base, **pump}]
+    if arrangement:
+        data["arrangement"] = [arrangement]
+    result = run("analyze", str(write_case(tmp_path, data)))
+    assert result.returncode == 2
+    assert "Traceback" not in result.stderr
+    assert result.stderr.startswith(expected), result.stderr

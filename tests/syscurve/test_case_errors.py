@@ -170,3 +170,107 @@ def test_an_exit_fitting_is_accepted_with_a_double_counting_warning(
     minimal["segment"][0]["fittings"]["exit"] = 1
     case = case_from_dict(minimal)
     assert any("double-counts" in w for w in case.warnings)
+
+
+# --- pumps and arrangements -------------------------------------------------------------
+
+PUMP: dict[str, Any] = {
+    "name": "p", "speed": "2900 rpm", "flow_unit": "L/s", "head_unit": "m",
+    "flow": [0, 1, 2, 3], "head": [30, 29, 26, 20], "efficiency": [0, 40, 60, 55],
+}
+
+
+def with_pump(minimal: dict[str, Any], arrangement: dict[str, Any] | None = None,
+              **changes: Any) -> dict[str, Any]:
+    minimal["pump"] = [{**PUMP, **changes}]
+    if arrangement is not None:
+        minimal["arrangement"] = [arrangement]
+    return minimal
+
+
+def test_a_pump_by_points_is_valid(minimal: dict[str, Any]) -> None:
+    case = case_from_dict(with_pump(minimal))
+    assert case.pump_part.pumps[0].name == "p"
+    assert [a.name for a in case.pump_part.arrangements] == ["p"]
+
+
+@pytest.mark.parametrize(
+    ("changes", "expected"),
+    [
+        ({"flow": [0, 1], "head": [30, 29], "efficiency": [0, 40]},
+         "pump[1].flow: needs at least 3 points, got 2"),
+        ({"flow": [0, 2, 1, 3]}, "pump[1].flow: must increase strictly; got 1 L/s after 2 L/s"),
+        ({"head": [30, 29, 26]}, "pump[1].head: has 3 values but flow has 4"),
+        ({"efficiency": [0, 40, 160, 55]},
+         "pump[1].efficiency: must be above 0 and at most 100 % where the flow is positive; "
+         "got 160 % at point 3"),
+        ({"efficiency": [0, 0, 60, 55]},
+         "pump[1].efficiency: must be above 0 and at most 100 % where the flow is positive; "
+         "got 0 % at point 2"),
+        ({"speed": "2900 m"}, "pump[1].speed: expected a rotational speed, got a length"),
+        ({"flow_unit": "m"}, "pump[1].flow_unit: expected a volumetric flow, got a length"),
+    ],
+)
+def test_bad_pump_points_name_the_key(
+    minimal: dict[str, Any], changes: dict[str, Any], expected: str
+) -> None:
+    message = only(with_pump(minimal, **changes))
+    assert message.startswith(expected), message
+
+
+@pytest.mark.parametrize(
+    ("arrangement", "expected"),
+    [
+        ({"pump": "q"}, 'arrangement[1].pump: no pump is named "q"'),
+        ({"pump": "p", "count": 0}, "arrangement[1].count: must be a whole number of pumps, 1 or"),
+        ({"pump": "p", "speed": "50 L/s"},
+         "arrangement[1].speed: expected a rotational speed, got a volumetric flow"),
+        ({"pump": "p", "count": 2, "connection": "sideways"},
+         'arrangement[1].connection: unknown value "sideways"'),
+    ],
+)
+def test_bad_arrangements_name_the_key(
+    minimal: dict[str, Any], arrangement: dict[str, Any], expected: str
+) -> None:
+    message = only(with_pump(minimal, arrangement))
+    assert message.startswith(expected), message
+
+
+def test_a_pump_csv_with_a_missing_column(minimal: dict[str, Any], tmp_path: Path) -> None:
+    (tmp_path / "p.csv").write_text(
+        "# name: p\n# speed: 2900 rpm\nflow [L/s],efficiency [%]\n0,0\n1,40\n2,60\n",
+        encoding="utf-8",
+    )
+    minimal["pump"] = [{"name": "p", "file": "p.csv"}]
+    path = tmp_path / "case.toml"
+    import tomli_w
+
+    path.write_text(tomli_w.dumps(minimal), encoding="utf-8")
+    with pytest.raises(CaseError) as error:
+        load_case(path)
+    message = str(error.value)
+    assert message.startswith("pump[1].file (p.csv)")
+    assert "head" in message
+
+
+def test_a_pump_csv_with_a_unit_that_does_not_fit(minimal: dict[str, Any], tmp_path: Path) -> None:
+    (tmp_path / "p.csv").write_text(
+        "# name: p\n# speed: 2900 rpm\nflow [L/s],head [L/s]\n0,30\n1,29\n2,26\n",
+        encoding="utf-8",
+    )
+    minimal["pump"] = [{"name": "p", "file": "p.csv"}]
+    path = tmp_path / "case.toml"
+    import tomli_w
+
+    path.write_text(tomli_w.dumps(minimal), encoding="utf-8")
+    with pytest.raises(CaseError) as error:
+        load_case(path)
+    message = str(error.value)
+    assert "head [L/s]" in message and "length" in message
+
+
+def test_a_library_pump_that_does_not_exist_suggests_names(minimal: dict[str, Any]) -> None:
+    minimal["pump"] = [{"name": "x", "library": "small booster"}]
+    message = only(minimal)
+    assert message.startswith('pump[1].library: no bundled pump "small booster"')
+    assert "small booster 2900 rpm" in message
