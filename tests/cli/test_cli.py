@@ -220,14 +220,36 @@ def test_json_operating_points_cover_every_arrangement_and_scenario(demo_file: P
     report = json.loads(run("analyze", str(demo_file), "--json").stdout)
     points = report["operating_points"]
     assert len(points) == 9  # 3 arrangements x 3 scenarios
-    contract = {"arrangement", "pump", "count", "connection", "speed_rpm", "scenario", "status",
-                "flow_m3_s", "head_m", "flow_per_pump_m3_s", "head_per_pump_m", "efficiency",
-                "shaft_power_w", "bep_flow_ratio", "npsh_available_m", "npsh_required_m",
-                "npsh_margin_ratio", "meets_demand", "warnings"}
+    contract = {
+        "arrangement",
+        "pump",
+        "count",
+        "connection",
+        "speed_rpm",
+        "scenario",
+        "status",
+        "flow_m3_s",
+        "head_m",
+        "flow_per_pump_m3_s",
+        "head_per_pump_m",
+        "efficiency",
+        "shaft_power_w",
+        "bep_flow_ratio",
+        "npsh_available_m",
+        "npsh_required_m",
+        "npsh_margin_ratio",
+        "meets_demand",
+        "warnings",
+    }
     for point in points:
         assert contract <= set(point)
-        assert point["status"] in {"ok", "no-intersection", "several-intersections",
-                                   "outside-curve", "not-needed"}
+        assert point["status"] in {
+            "ok",
+            "no-intersection",
+            "several-intersections",
+            "outside-curve",
+            "not-needed",
+        }
     running = [p for p in points if p["status"] == "ok"]
     assert all(p["efficiency"] and p["shaft_power_w"] and p["npsh_available_m"] for p in running)
 
@@ -285,8 +307,15 @@ def test_bad_pump_input_exits_2_naming_the_key(
     from tests.conftest import MINIMAL
 
     data = copy.deepcopy(MINIMAL)
-    base = {"name": "p", "speed": "2900 rpm", "flow_unit": "L/s", "head_unit": "m",
-            "flow": [0, 1, 2, 3], "head": [30, 29, 26, 20], "efficiency": [0, 40, 60, 55]}
+    base = {
+        "name": "p",
+        "speed": "2900 rpm",
+        "flow_unit": "L/s",
+        "head_unit": "m",
+        "flow": [0, 1, 2, 3],
+        "head": [30, 29, 26, 20],
+        "efficiency": [0, 40, 60, 55],
+    }
     data["pump"] = [{**base, **pump}]
     if arrangement:
         data["arrangement"] = [arrangement]

@@ -175,13 +175,19 @@ def test_an_exit_fitting_is_accepted_with_a_double_counting_warning(
 # --- pumps and arrangements -------------------------------------------------------------
 
 PUMP: dict[str, Any] = {
-    "name": "p", "speed": "2900 rpm", "flow_unit": "L/s", "head_unit": "m",
-    "flow": [0, 1, 2, 3], "head": [30, 29, 26, 20], "efficiency": [0, 40, 60, 55],
+    "name": "p",
+    "speed": "2900 rpm",
+    "flow_unit": "L/s",
+    "head_unit": "m",
+    "flow": [0, 1, 2, 3],
+    "head": [30, 29, 26, 20],
+    "efficiency": [0, 40, 60, 55],
 }
 
 
-def with_pump(minimal: dict[str, Any], arrangement: dict[str, Any] | None = None,
-              **changes: Any) -> dict[str, Any]:
+def with_pump(
+    minimal: dict[str, Any], arrangement: dict[str, Any] | None = None, **changes: Any
+) -> dict[str, Any]:
     minimal["pump"] = [{**PUMP, **changes}]
     if arrangement is not None:
         minimal["arrangement"] = [arrangement]
@@ -197,16 +203,22 @@ def test_a_pump_by_points_is_valid(minimal: dict[str, Any]) -> None:
 @pytest.mark.parametrize(
     ("changes", "expected"),
     [
-        ({"flow": [0, 1], "head": [30, 29], "efficiency": [0, 40]},
-         "pump[1].flow: needs at least 3 points, got 2"),
+        (
+            {"flow": [0, 1], "head": [30, 29], "efficiency": [0, 40]},
+            "pump[1].flow: needs at least 3 points, got 2",
+        ),
         ({"flow": [0, 2, 1, 3]}, "pump[1].flow: must increase strictly; got 1 L/s after 2 L/s"),
         ({"head": [30, 29, 26]}, "pump[1].head: has 3 values but flow has 4"),
-        ({"efficiency": [0, 40, 160, 55]},
-         "pump[1].efficiency: must be above 0 and at most 100 % where the flow is positive; "
-         "got 160 % at point 3"),
-        ({"efficiency": [0, 0, 60, 55]},
-         "pump[1].efficiency: must be above 0 and at most 100 % where the flow is positive; "
-         "got 0 % at point 2"),
+        (
+            {"efficiency": [0, 40, 160, 55]},
+            "pump[1].efficiency: must be above 0 and at most 100 % where the flow is positive; "
+            "got 160 % at point 3",
+        ),
+        (
+            {"efficiency": [0, 0, 60, 55]},
+            "pump[1].efficiency: must be above 0 and at most 100 % where the flow is positive; "
+            "got 0 % at point 2",
+        ),
         ({"speed": "2900 m"}, "pump[1].speed: expected a rotational speed, got a length"),
         ({"flow_unit": "m"}, "pump[1].flow_unit: expected a volumetric flow, got a length"),
     ],
@@ -223,10 +235,14 @@ def test_bad_pump_points_name_the_key(
     [
         ({"pump": "q"}, 'arrangement[1].pump: no pump is named "q"'),
         ({"pump": "p", "count": 0}, "arrangement[1].count: must be a whole number of pumps, 1 or"),
-        ({"pump": "p", "speed": "50 L/s"},
-         "arrangement[1].speed: expected a rotational speed, got a volumetric flow"),
-        ({"pump": "p", "count": 2, "connection": "sideways"},
-         'arrangement[1].connection: unknown value "sideways"'),
+        (
+            {"pump": "p", "speed": "50 L/s"},
+            "arrangement[1].speed: expected a rotational speed, got a volumetric flow",
+        ),
+        (
+            {"pump": "p", "count": 2, "connection": "sideways"},
+            'arrangement[1].connection: unknown value "sideways"',
+        ),
     ],
 )
 def test_bad_arrangements_name_the_key(

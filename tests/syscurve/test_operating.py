@@ -26,8 +26,11 @@ from tests.conftest import MINIMAL
 # water at 20 C. Computed by two independent routes with outside libraries (iapws + own
 # Colebrook + brentq; chemicals + fluids.friction_factor + scipy Newton), which agree.
 # The engine fits the parabola through 39 points with PCHIP, so allow 2e-5.
-CONSTRUCTED = {"single": (0.105497, 43.3056), "parallel": (0.127920, 53.8637),
-               "series": (0.140599, 60.6960)}
+CONSTRUCTED = {
+    "single": (0.105497, 43.3056),
+    "parallel": (0.127920, 53.8637),
+    "series": (0.140599, 60.6960),
+}
 
 
 def parabola_pump() -> PumpCurve:
@@ -41,8 +44,9 @@ def constructed_batch() -> ScenarioBatch:
         "liquid": {"kind": "water", "temperature": "20 degC"},
         "source": {"level": "0 m"},
         "delivery": {"outlet": "tank", "level": "20 m", "demand": "0.1 m^3/s"},
-        "segment": [{"length": "500 m", "diameter": "0.2 m", "roughness": "0.045 mm",
-                     "k_extra": 1.25}],  # the engine adds the exit's 1.0
+        "segment": [
+            {"length": "500 m", "diameter": "0.2 m", "roughness": "0.045 mm", "k_extra": 1.25}
+        ],  # the engine adds the exit's 1.0
     }
     case = case_from_dict(data)
     return ScenarioBatch(case.pipeline, case.scenarios)
@@ -90,8 +94,9 @@ def test_hydraulic_power_at_the_constructed_point() -> None:
         "liquid": {"kind": "water", "temperature": "20 degC"},
         "source": {"level": "0 m"},
         "delivery": {"outlet": "tank", "level": "20 m", "demand": "0.1 m^3/s"},
-        "segment": [{"length": "500 m", "diameter": "0.2 m", "roughness": "0.045 mm",
-                     "k_extra": 1.25}],
+        "segment": [
+            {"length": "500 m", "diameter": "0.2 m", "roughness": "0.045 mm", "k_extra": 1.25}
+        ],
     }
     case = case_from_dict(data)
     points = analyze(_with_pump(case, parabola_pump())).operating_points
@@ -123,9 +128,16 @@ def test_munson_pump_on_system_curve_example_point_lies_on_the_engine_system_cur
     data["liquid"] = {"kind": "water", "temperature": "60 degF"}
     data["source"] = {"level": "0 ft"}
     data["delivery"] = {"outlet": "tank", "level": "10 ft", "demand": "1600 gpm"}
-    data["segment"] = [{"name": "line", "length": "200 ft", "diameter": "6 in",
-                        "roughness": "0.0005 ft", "fittings": {"entrance-sharp": 1},
-                        "k_extra": 1.5}]
+    data["segment"] = [
+        {
+            "name": "line",
+            "length": "200 ft",
+            "diameter": "6 in",
+            "roughness": "0.0005 ft",
+            "fittings": {"entrance-sharp": 1},
+            "k_extra": 1.5,
+        }
+    ]
     report = analyze(case_from_dict(data))
     result = report.scenarios[0]
     assert result.segments_at_demand[0].friction_factor == pytest.approx(0.020, rel=0.02)
@@ -138,8 +150,9 @@ def test_munson_pump_on_system_curve_example_point_lies_on_the_engine_system_cur
 
 
 def demo() -> Any:
-    from syscurve.cli import example_text
     import tomllib
+
+    from syscurve.cli import example_text
 
     return case_from_dict(tomllib.loads(example_text()))
 
@@ -265,8 +278,10 @@ def test_different_pumps_in_parallel_share_the_header_head() -> None:
 def test_a_weak_pump_in_a_mixed_parallel_set_says_it_delivers_nothing() -> None:
     data = copy.deepcopy(MINIMAL)
     data["delivery"]["level"] = "109 m"  # 9 m lift: above booster A's 8.5 m shutoff
-    data["pump"] = [{"name": "A", "library": "inline booster A 2900 rpm"},
-                    {"name": "B", "library": "inline booster B 2900 rpm"}]
+    data["pump"] = [
+        {"name": "A", "library": "inline booster A 2900 rpm"},
+        {"name": "B", "library": "inline booster B 2900 rpm"},
+    ]
     data["arrangement"] = [{"pumps": ["A", "B"]}]
     point = analyze(case_from_dict(data)).operating_points[0]
     assert point.status in ("ok", "outside-curve")
