@@ -31,7 +31,13 @@ def _bullets(items: Sequence[str], width: int = 96) -> str:
     if not items:
         return "  (none)"
     return "\n".join(
-        textwrap.fill(item, width=width, initial_indent="  - ", subsequent_indent="    ")
+        textwrap.fill(
+            item,
+            width=width,
+            initial_indent="  - ",
+            subsequent_indent="    ",
+            break_on_hyphens=False,
+        )
         for item in items
     )
 
@@ -209,10 +215,32 @@ def pump_sections(report: Report, d: Display) -> str:
         )
         shutoff = d.text("head", pump.shutoff_head)
         out.append(
-            f"  {pump.name}: {pump.speed_rpm:.0f} rpm, shutoff {shutoff}, "
-            f"{bep}; fit PCHIP, largest leave-one-out head residual "
-            f"{d.text('head', pump.max_head_residual, 2)}"
-            + (f"; {pump.source}" if pump.source else "")
+            textwrap.fill(
+                f"{pump.name}: {pump.speed_rpm:.0f} rpm, shutoff {shutoff}, {bep}; fit PCHIP, "
+                f"largest leave-one-out head residual {d.text('head', pump.max_head_residual, 2)}"
+                + (f"; {pump.source}" if pump.source else ""),
+                width=96,
+                initial_indent="  ",
+                subsequent_indent="    ",
+            )
+        )
+    speeds: dict[str, list[str]] = {}
+    for point in report.operating_points:
+        if point.min_speed_rpm is None:
+            continue
+        static = d.text("head", report.scenario(point.scenario).static_head)
+        below = f"{point.min_speed_rpm:.0f} rpm" if point.min_speed_rpm > 0 else "any speed"
+        speeds.setdefault(point.arrangement, []).append(
+            f"{point.scenario} {below} (static head {static})"
+        )
+    for arrangement, items in speeds.items():
+        out.append(
+            textwrap.fill(
+                f"{arrangement}: the pumps overcome the static head from " + "; ".join(items),
+                width=96,
+                initial_indent="  ",
+                subsequent_indent="    ",
+            )
         )
     if not report.operating_points:
         return "\n".join(out)
