@@ -27,19 +27,17 @@ def text_table(headers: Sequence[str], rows: Sequence[Sequence[str]], indent: st
     return "\n".join([line(headers), rule, *(line(r) for r in rows)])
 
 
+def _wrap(text: str, first: str, rest: str, width: int = 96) -> str:
+    """Wrap text to `width`, never breaking inside a hyphenated word."""
+    return textwrap.fill(
+        text, width=width, initial_indent=first, subsequent_indent=rest, break_on_hyphens=False
+    )
+
+
 def _bullets(items: Sequence[str], width: int = 96) -> str:
     if not items:
         return "  (none)"
-    return "\n".join(
-        textwrap.fill(
-            item,
-            width=width,
-            initial_indent="  - ",
-            subsequent_indent="    ",
-            break_on_hyphens=False,
-        )
-        for item in items
-    )
+    return "\n".join(_wrap(item, "  - ", "    ") for item in items)
 
 
 def verdict_sentences(report: Report, display: Display) -> list[str]:
@@ -215,13 +213,12 @@ def pump_sections(report: Report, d: Display) -> str:
         )
         shutoff = d.text("head", pump.shutoff_head)
         out.append(
-            textwrap.fill(
+            _wrap(
                 f"{pump.name}: {pump.speed_rpm:.0f} rpm, shutoff {shutoff}, {bep}; fit PCHIP, "
                 f"largest leave-one-out head residual {d.text('head', pump.max_head_residual, 2)}"
                 + (f"; {pump.source}" if pump.source else ""),
-                width=96,
-                initial_indent="  ",
-                subsequent_indent="    ",
+                "  ",
+                "    ",
             )
         )
     speeds: dict[str, list[str]] = {}
@@ -235,11 +232,10 @@ def pump_sections(report: Report, d: Display) -> str:
         )
     for arrangement, items in speeds.items():
         out.append(
-            textwrap.fill(
+            _wrap(
                 f"{arrangement}: the pumps overcome the static head from " + "; ".join(items),
-                width=96,
-                initial_indent="  ",
-                subsequent_indent="    ",
+                "  ",
+                "    ",
             )
         )
     if not report.operating_points:
@@ -259,11 +255,10 @@ def pump_sections(report: Report, d: Display) -> str:
     out += ["", "OPERATING POINTS", text_table(headers, rows)]
     for number, point in notes:
         out.append(
-            textwrap.fill(
+            _wrap(
                 f"[{number}] {point.arrangement}, {point.scenario}: " + "; ".join(point.warnings),
-                width=96,
-                initial_indent="  ",
-                subsequent_indent="      ",
+                "  ",
+                "      ",
             )
         )
     return "\n".join(out)
