@@ -323,3 +323,26 @@ def test_bad_pump_input_exits_2_naming_the_key(
     assert result.returncode == 2
     assert "Traceback" not in result.stderr
     assert result.stderr.startswith(expected), result.stderr
+
+
+@pytest.mark.parametrize(
+    ("csv_text", "fragment"),
+    [
+        ("# name: p\n# speed: 2900 rpm\nflow [L/s],efficiency [%]\n0,0\n1,40\n2,60\n", "head"),
+        ("# name: p\n# speed: 2900 rpm\nflow [L/s],head [L/s]\n0,30\n1,29\n2,26\n", "head [L/s]"),
+    ],
+)
+def test_a_bad_pump_csv_exits_2_naming_the_file(
+    tmp_path: Path, csv_text: str, fragment: str
+) -> None:
+    import copy
+
+    from tests.conftest import MINIMAL
+
+    (tmp_path / "pump.csv").write_text(csv_text, encoding="utf-8")
+    data = copy.deepcopy(MINIMAL)
+    data["pump"] = [{"name": "p", "file": "pump.csv"}]
+    result = run("analyze", str(write_case(tmp_path, data)))
+    assert result.returncode == 2
+    assert result.stderr.startswith("pump[1].file (pump.csv)")
+    assert fragment in result.stderr and "Traceback" not in result.stderr
