@@ -50,6 +50,11 @@ class Solution:
     reason: str = ""
 
 
+def _without_point(index: int, status: str, reason: str, speed_ratio: float = 1.0) -> Solution:
+    """A solution that has no operating point (no intersection, not needed, ...)."""
+    return Solution(index, status, None, None, speed_ratio, (), reason)
+
+
 def illinois(
     function: Callable[[FloatArray, IntArray], FloatArray],
     a: FloatArray,
@@ -172,9 +177,9 @@ def _no_intersection(
     difference: FloatArray,
 ) -> Solution:
     if difference[-1] > 0:  # pump still above the system at twice its data range
-        return Solution(index, "outside-curve", None, None, ratio, (), beyond_reason(grid[-1]))
+        return _without_point(index, "outside-curve", beyond_reason(grid[-1]), ratio)
     reason = below_reason(combined.shutoff_head, static)
-    return Solution(index, "no-intersection", None, None, ratio, (), reason)
+    return _without_point(index, "no-intersection", reason, ratio)
 
 
 def solve_for_demand(
@@ -199,17 +204,14 @@ def solve_for_demand(
         needed = float(needed)
         if needed <= 0:
             solutions.append(
-                Solution(
+                _without_point(
                     i,
                     "not-needed",
-                    None,
-                    None,
-                    0.0,
-                    (),
                     (
                         f"gravity alone delivers the demand here (system head at the demand "
                         f"{needed:.3g} m); the pump need not run"
                     ),
+                    0.0,
                 )
             )
             continue
@@ -217,13 +219,9 @@ def solve_for_demand(
         above = np.nonzero(gap >= 0)[0]
         if above.size == 0:
             solutions.append(
-                Solution(
+                _without_point(
                     i,
                     "no-intersection",
-                    None,
-                    None,
-                    1.0,
-                    (),
                     (
                         f"even at full speed the arrangement gives {head_at_ratio[-1]:.3g} m "
                         f"at the demand; the system needs {needed:.3g} m"
@@ -261,13 +259,9 @@ def solve_mixed_parallel(batch: ScenarioBatch, arrangement: Arrangement) -> list
         low = float(batch.static_head[i])
         if gap(top) <= 0:
             solutions.append(
-                Solution(
+                _without_point(
                     i,
                     "no-intersection",
-                    None,
-                    None,
-                    1.0,
-                    (),
                     (f"the highest shutoff head {top:.3g} m is below the static head {low:.3g} m"),
                 )
             )
@@ -276,15 +270,7 @@ def solve_mixed_parallel(batch: ScenarioBatch, arrangement: Arrangement) -> list
             head = brent(gap, min(low, 0.0) - 10.0 * top, top)
         except NoBracket:
             solutions.append(
-                Solution(
-                    i,
-                    "outside-curve",
-                    None,
-                    None,
-                    1.0,
-                    (),
-                    "the point lies far beyond the pumps' data",
-                )
+                _without_point(i, "outside-curve", "the point lies far beyond the pumps' data")
             )
             continue
         flows = mixed_parallel_flows(units, head)
@@ -292,13 +278,9 @@ def solve_mixed_parallel(batch: ScenarioBatch, arrangement: Arrangement) -> list
         beyond = any(q > u.max_flow * (1 + 1e-9) for q, u in zip(flows, units, strict=True))
         if total <= 0:
             solutions.append(
-                Solution(
+                _without_point(
                     i,
                     "no-intersection",
-                    None,
-                    None,
-                    1.0,
-                    (),
                     (f"no pump's shutoff head exceeds the static head {low:.3g} m"),
                 )
             )
@@ -373,11 +355,11 @@ def solve_falling_group(
                 group.append(Solution(i, status, q, float(head[k]), 1.0, (q,)))
             elif at_upper[k] > 0:
                 reason = beyond_reason(float(upper[k]))
-                group.append(Solution(i, "outside-curve", None, None, 1.0, (), reason))
+                group.append(_without_point(i, "outside-curve", reason))
             else:
                 shutoff = float(s[k] * r[k] ** 2 * base.shutoff_head)
                 reason = below_reason(shutoff, float(static[i]))
-                group.append(Solution(i, "no-intersection", None, None, 1.0, (), reason))
+                group.append(_without_point(i, "no-intersection", reason))
         results.append(group)
     return results
 
