@@ -60,7 +60,7 @@ def _arrangement_curves(
                 unit.bep_head * combined.series_units,
             )
         return flow, head, bep
-    top = min(u.shutoff_head for u in arrangement.pumps)
+    top = max(u.shutoff_head for u in arrangement.pumps)  # above the weaker shutoffs one runs
     low = max(float(u.head[-1]) for u in arrangement.pumps)
     heads = np.linspace(max(low, 0.0), top, CURVE_POINTS)
     flows = np.array([sum(mixed_parallel_flows(arrangement.pumps, h)) for h in heads])

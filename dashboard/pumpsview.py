@@ -15,6 +15,7 @@ import re
 from typing import Any
 
 from syscurve.errors import CaseError
+from syscurve.pumpcase import arrangement_name
 from syscurve.units import unit_factor
 
 from .viewmodel import is_number, number_text
@@ -327,13 +328,11 @@ def automatic_name(table: dict[str, Any]) -> str:
         return " + ".join(map(str, pumps))
     pump, count = str(table.get("pump", "")), table.get("count", 1)
     connection = table.get("connection", "parallel")
-    label = pump if count == 1 else f"{count} x {pump} {connection}"
     speed = table.get("speed")
-    if speed == "for-demand":
-        return label + " at speed for demand"
+    rpm = None
     if isinstance(speed, str) and re.match(r"^\s*[-+0-9.eE]+\s*rpm\s*$", speed):
-        return label + f" at {float(speed.split()[0]):g} rpm"
-    return label
+        rpm = float(speed.split()[0])
+    return arrangement_name(pump, count, connection, rpm, speed == "for-demand")
 
 
 def _arrangement_value(column: str, value: Any) -> Any:

@@ -16,7 +16,7 @@ from .gravity import (
 from .pumping import OperatingPoint, operating_points, pump_cautions, required_duties
 from .results import GravityVerdict, NodePressure, Report, ScenarioResult, SegmentResult
 from .system import SystemCurve
-from .units import G
+from .units import Display, G
 
 #: Cautions every summary and report carries.
 STANDING_CAUTIONS = (
@@ -121,27 +121,27 @@ def verdict(results: list[ScenarioResult], demand: float) -> GravityVerdict:
     )
 
 
-def velocity_warnings(case: Case, results: list[ScenarioResult]) -> list[str]:
+def velocity_warnings(case: Case, results: list[ScenarioResult], d: Display) -> list[str]:
     """Segment velocities at the demand against the case's range (common practice)."""
     low, high = case.velocity_range
     warnings = []
     for seg in results[0].segments_at_demand:  # velocity at a flow is the same in every scenario
         if seg.velocity < low:
             warnings.append(
-                f"segment '{seg.name}': velocity {seg.velocity:.2f} m/s at the demand is below "
-                f"{low:.2f} m/s; sediment may settle and air may collect "
+                f"segment '{seg.name}': velocity {d.text('velocity', seg.velocity)} at the demand "
+                f"is below {d.text('velocity', low)}; sediment may settle and air may collect "
                 f"({VELOCITY_RANGE_SOURCE})"
             )
         elif seg.velocity > high:
             warnings.append(
-                f"segment '{seg.name}': velocity {seg.velocity:.2f} m/s at the demand is above "
-                f"{high:.2f} m/s; expect erosion, noise and high surge pressures "
-                f"({VELOCITY_RANGE_SOURCE})"
+                f"segment '{seg.name}': velocity {d.text('velocity', seg.velocity)} at the demand "
+                f"is above {d.text('velocity', high)}; expect erosion, noise and high surge "
+                f"pressures ({VELOCITY_RANGE_SOURCE})"
             )
     return warnings
 
 
-def pressure_warnings(case: Case, results: list[ScenarioResult]) -> list[str]:
+def pressure_warnings(case: Case, results: list[ScenarioResult], d: Display) -> list[str]:
     """Sub-atmospheric pressure along the route and static pressure against ratings."""
     warnings = []
     for result in results:
@@ -151,7 +151,8 @@ def pressure_warnings(case: Case, results: list[ScenarioResult]) -> list[str]:
         worst = min(nodes, key=lambda n: n.pressure_head)
         if worst.pressure_head < 0:
             warnings.append(
-                f"{result.name}: sub-atmospheric pressure ({worst.pressure_head:.1f} m of liquid) "
+                f"{result.name}: sub-atmospheric pressure "
+                f"({d.text('head', worst.pressure_head)} of liquid) "
                 f"at the end of segment '{worst.segment}' when gravity runs at full flow; the "
                 "line may draw air or contaminants and stop flowing over the high point"
             )
@@ -165,8 +166,8 @@ def pressure_warnings(case: Case, results: list[ScenarioResult]) -> list[str]:
             if s.pressure_rating is not None and static > s.pressure_rating:
                 warnings.append(
                     f"segment '{s.name}': static pressure with the outlet closed "
-                    f"({static / 1000:.0f} kPa) exceeds its rating "
-                    f"({s.pressure_rating / 1000:.0f} kPa); consider a break-pressure tank "
+                    f"({d.text('pressure', static)}) exceeds its rating "
+                    f"({d.text('pressure', s.pressure_rating)}); consider a break-pressure tank "
                     "or a higher pipe class"
                 )
     return warnings
@@ -205,15 +206,16 @@ def analyze(case: Case) -> Report:
     """
     results, warnings = analyze_gravity(case)
     warnings = list(case.warnings) + warnings
-    warnings += velocity_warnings(case, results)
-    warnings += pressure_warnings(case, results)
+    display = Display(case.display)
+    warnings += velocity_warnings(case, results, display)
+    warnings += pressure_warnings(case, results, display)
     cautions = list(STANDING_CAUTIONS)
     points: list[OperatingPoint] = []
     if case.pump_part.arrangements:
         points = operating_points(case)
         cautions += pump_cautions(case, points)
         for pump in case.pump_part.pumps:
-            warnings += [f"pump '{pump.name}': {w}" for w in pump.warnings()]
+            warnings += pump.warnings(display)
     return Report(
         case=case,
         scenarios=results,

@@ -223,7 +223,7 @@ def case_from_dict(data: dict[str, Any], base_dir: Path | None = None) -> Case:
     segments = _read_segments(r, data, model)
     pump_part = read_pump_part(r, data, base_dir)
     velocity_range = _read_checks(r, data)
-    candidates, sizing_segments = _read_sizing(r, data, segments)
+    candidates, sizing_segments = _read_sizing(r, data)
 
     if liquid is not None and model.name == "hazen-williams":
         if not liquid.is_water:
@@ -471,8 +471,20 @@ def _read_checks(r: Reader, data: dict[str, Any]) -> tuple[float, float]:
     return low, high
 
 
+def _segment_names(data: dict[str, Any]) -> set[str]:
+    """Names of every segment table, valid or not (so one bad segment cascades no further)."""
+    raw = data.get("segment")
+    if not isinstance(raw, list):
+        return set()
+    return {
+        str(t.get("name", f"segment {number}"))
+        for number, t in enumerate(raw, start=1)
+        if isinstance(t, dict)
+    }
+
+
 def _read_sizing(
-    r: Reader, data: dict[str, Any], segments: list[Segment]
+    r: Reader, data: dict[str, Any]
 ) -> tuple[list[tuple[str, float, str]], frozenset[str] | None]:
     table = r.table(data, "sizing")
     r.known_keys(table, ("candidate_diameters", "series", "segments"), "sizing")
@@ -497,7 +509,7 @@ def _read_sizing(
             continue
         candidates.extend((label, d, PIPE_SERIES_SOURCES[name]) for label, d in series.items())
     names = r.string_list(table, "segments", "sizing")
-    known = {s.name for s in segments}
+    known = _segment_names(data)
     for name in names or []:
         if name not in known:
             r.add("sizing.segments", f'no segment is named "{name}"')

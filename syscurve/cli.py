@@ -57,6 +57,10 @@ def _analyze(args: argparse.Namespace) -> int:
     from .case import load_case
 
     case = load_case(args.case)
+    if args.units:  # warnings and tables follow the display units asked for
+        from dataclasses import replace
+
+        case = replace(case, display=args.units)
     report = analyze(case)
     if args.table:
         from .tables import write_table

@@ -24,15 +24,14 @@ from .units import G
 #: Guideline for the NPSH margin (configurable in [pump_station]): NPSHa/NPSHr >= 1.1
 #: or NPSHa - NPSHr >= 0.6 m, whichever is greater.
 NPSH_GUIDELINE_SOURCE = (
-    "ANSI/HI 9.6.1-2012 guideline for water and wastewater with suction specific speed "
-    "below 145 (metric): NPSHa/NPSH3 >= 1.1 or a margin of 0.6 m, whichever is greater; "
+    "ANSI/HI 9.6.1-2012, water and wastewater, suction specific speed below 145 (metric); "
     "figures from a secondary summary of the standard, not read directly"
 )
-#: Preferred operating region as fractions of BEP flow (configurable).
+#: Preferred operating region as fractions of BEP flow (configurable): 70-120 % of BEP
+#: flow for most rotodynamic pumps, narrower at high specific speed.
 PREFERRED_REGION_SOURCE = (
-    "ANSI/HI 9.6.3 preferred operating region, 70-120 % of BEP flow for most rotodynamic "
-    "pumps (narrower at high specific speed); figures from a trade-journal summary of the "
-    "standard, not read directly"
+    "ANSI/HI 9.6.3, most rotodynamic pumps (narrower at high specific speed); figures from "
+    "a trade-journal summary of the standard, not read directly"
 )
 
 

@@ -27,6 +27,7 @@ from .arrangement import Arrangement, Combined, mixed_parallel_flows
 from .pump import PumpCurve
 from .roots import NoBracket, brent
 from .system import ScenarioBatch
+from .units import Display
 
 FloatArray = NDArray[np.float64]
 IntArray = NDArray[np.int_]
@@ -113,9 +114,16 @@ def _brackets(
 
 
 def solve_fixed_speed(
-    batch: ScenarioBatch, combined: Combined, speed_ratio: float = 1.0
+    batch: ScenarioBatch,
+    combined: Combined,
+    speed_ratio: float = 1.0,
+    display: Display | None = None,
 ) -> list[Solution]:
-    """Every intersection of an identical-unit arrangement with every scenario's curve."""
+    """Every intersection of an identical-unit arrangement with every scenario's curve.
+
+    Reasons for missing points are written in `display` units (SI by default).
+    """
+    d = display or Display()
     n = len(batch.scenarios)
     q_end = combined.max_flow
     # A head curve that never rises meets the rising system curve once at most, so the
@@ -126,10 +134,10 @@ def solve_fixed_speed(
     difference = combined.head(grid)[None, :] - batch.head_grid(grid)
     s, a, b, fa, fb, zero_s, zero_q = _brackets(difference, grid)
 
-    def d(q: FloatArray, index: IntArray) -> FloatArray:
+    def gap(q: FloatArray, index: IntArray) -> FloatArray:
         return combined.head(q) - batch.head_of(index, q)
 
-    roots = illinois(d, a, b, fa, fb, s, xtol=1e-12 * q_end) if s.size else np.empty(0)
+    roots = illinois(gap, a, b, fa, fb, s, xtol=1e-12 * q_end) if s.size else np.empty(0)
     found: list[list[float]] = [[] for _ in range(n)]
     for index, q in zip(np.r_[s, zero_s], np.r_[roots, zero_q], strict=True):
         found[int(index)].append(float(q))
@@ -141,7 +149,7 @@ def solve_fixed_speed(
     for i, flows in enumerate(kept):
         if not flows:
             solutions.append(
-                _no_intersection(i, combined, float(static[i]), speed_ratio, grid, difference[i])
+                _no_intersection(i, combined, float(static[i]), speed_ratio, grid, difference[i], d)
             )
             continue
         flow = flows[0]
@@ -153,18 +161,21 @@ def solve_fixed_speed(
     return solutions
 
 
-def beyond_reason(search_end: float) -> str:
+def beyond_reason(search_end: float, d: Display) -> str:
     """Why there is no point within the search range: the pump stays above the system."""
     return (
         "the pump curve stays above the system curve beyond twice its last point "
-        f"({search_end * 1000:.3g} L/s); the point lies far outside the data"
+        f"({d.text('flow', search_end)}); the point lies far outside the data"
     )
 
 
-def below_reason(shutoff: float, static: float) -> str:
+def below_reason(shutoff: float, static: float, d: Display) -> str:
     """Why there is no point: the pump stays below the system curve."""
     if shutoff <= static:
-        return f"shutoff head {shutoff:.3g} m is below the static head {static:.3g} m"
+        return (
+            f"shutoff head {d.text('head', shutoff)} is below the static head "
+            f"{d.text('head', static)}"
+        )
     return "the pump curve stays below the system curve"
 
 
@@ -175,20 +186,22 @@ def _no_intersection(
     ratio: float,
     grid: FloatArray,
     difference: FloatArray,
+    d: Display,
 ) -> Solution:
     if difference[-1] > 0:  # pump still above the system at twice its data range
-        return _without_point(index, "outside-curve", beyond_reason(grid[-1]), ratio)
-    reason = below_reason(combined.shutoff_head, static)
+        return _without_point(index, "outside-curve", beyond_reason(grid[-1], d), ratio)
+    reason = below_reason(combined.shutoff_head, static, d)
     return _without_point(index, "no-intersection", reason, ratio)
 
 
 def solve_for_demand(
-    batch: ScenarioBatch, arrangement: Arrangement, demand: float
+    batch: ScenarioBatch, arrangement: Arrangement, demand: float, display: Display | None = None
 ) -> list[Solution]:
     """Per scenario, the speed at which the arrangement delivers `demand` [m^3/s].
 
     The speed is limited to the arrangement's speed (its curve's, unless given).
     """
+    d = display or Display()
     base = arrangement.units_at(1.0)[0]
     combined = Combined(base, arrangement.count, arrangement.connection)
     required = batch.head_each(np.full(len(batch.scenarios), demand))
@@ -209,7 +222,7 @@ def solve_for_demand(
                     "not-needed",
                     (
                         f"gravity alone delivers the demand here (system head at the demand "
-                        f"{needed:.3g} m); the pump need not run"
+                        f"{d.text('head', needed)}); the pump need not run"
                     ),
                     0.0,
                 )
@@ -223,8 +236,9 @@ def solve_for_demand(
                     i,
                     "no-intersection",
                     (
-                        f"even at full speed the arrangement gives {head_at_ratio[-1]:.3g} m "
-                        f"at the demand; the system needs {needed:.3g} m"
+                        "even at full speed the arrangement gives "
+                        f"{d.text('head', float(head_at_ratio[-1]))} at the demand; the system "
+                        f"needs {d.text('head', needed)}"
                     ),
                 )
             )
@@ -244,8 +258,11 @@ def solve_for_demand(
     return solutions
 
 
-def solve_mixed_parallel(batch: ScenarioBatch, arrangement: Arrangement) -> list[Solution]:
+def solve_mixed_parallel(
+    batch: ScenarioBatch, arrangement: Arrangement, display: Display | None = None
+) -> list[Solution]:
     """Different pumps in parallel: solve in head space, H = H_sys(sum of q_i(H))."""
+    d = display or Display()
     units = arrangement.units_at(1.0)
     top = max(u.max_head for u in units)
     solutions = []
@@ -262,7 +279,10 @@ def solve_mixed_parallel(batch: ScenarioBatch, arrangement: Arrangement) -> list
                 _without_point(
                     i,
                     "no-intersection",
-                    (f"the highest shutoff head {top:.3g} m is below the static head {low:.3g} m"),
+                    (
+                        f"the highest shutoff head {d.text('head', top)} is below the static "
+                        f"head {d.text('head', low)}"
+                    ),
                 )
             )
             continue
@@ -281,7 +301,7 @@ def solve_mixed_parallel(batch: ScenarioBatch, arrangement: Arrangement) -> list
                 _without_point(
                     i,
                     "no-intersection",
-                    (f"no pump's shutoff head exceeds the static head {low:.3g} m"),
+                    (f"no pump's shutoff head exceeds the static head {d.text('head', low)}"),
                 )
             )
             continue
@@ -296,7 +316,10 @@ def _falling(curve: PumpCurve) -> bool:
 
 
 def solve_falling_group(
-    batch: ScenarioBatch, base: PumpCurve, arrangements: list[Arrangement]
+    batch: ScenarioBatch,
+    base: PumpCurve,
+    arrangements: list[Arrangement],
+    display: Display | None = None,
 ) -> list[list[Solution]]:
     """Fixed-speed arrangements of one falling pump curve, all scenarios in one solve.
 
@@ -306,6 +329,7 @@ def solve_falling_group(
     on [0, twice the data end], where the falling pump curve meets the rising system
     curve once at most.
     """
+    d = display or Display()
     n = len(batch.scenarios)
     ratio = np.array([(a.speed_rpm or base.speed_rpm) / base.speed_rpm for a in arrangements])
     combos = [Combined(base, a.count, a.connection) for a in arrangements]
@@ -354,18 +378,21 @@ def solve_falling_group(
                 status = "outside-curve" if beyond else "ok"
                 group.append(Solution(i, status, q, float(head[k]), 1.0, (q,)))
             elif at_upper[k] > 0:
-                reason = beyond_reason(float(upper[k]))
+                reason = beyond_reason(float(upper[k]), d)
                 group.append(_without_point(i, "outside-curve", reason))
             else:
                 shutoff = float(s[k] * r[k] ** 2 * base.shutoff_head)
-                reason = below_reason(shutoff, float(static[i]))
+                reason = below_reason(shutoff, float(static[i]), d)
                 group.append(_without_point(i, "no-intersection", reason))
         results.append(group)
     return results
 
 
 def solve_all(
-    batch: ScenarioBatch, arrangements: list[Arrangement] | tuple[Arrangement, ...], demand: float
+    batch: ScenarioBatch,
+    arrangements: list[Arrangement] | tuple[Arrangement, ...],
+    demand: float,
+    display: Display | None = None,
 ) -> list[list[Solution]]:
     """Solutions of every arrangement in every scenario (same order as `arrangements`).
 
@@ -379,24 +406,30 @@ def solve_all(
         if arrangement.identical and not arrangement.for_demand and _falling(base):
             groups.setdefault(id(base), []).append(index)
         else:
-            results[index] = solve(batch, arrangement, demand)
+            results[index] = solve(batch, arrangement, demand, display)
     for members in groups.values():
         chosen = [arrangements[i] for i in members]
         for index, solutions in zip(
-            members, solve_falling_group(batch, chosen[0].pumps[0], chosen), strict=True
+            members, solve_falling_group(batch, chosen[0].pumps[0], chosen, display), strict=True
         ):
             results[index] = solutions
     return [results[i] for i in range(len(arrangements))]
 
 
-def solve(batch: ScenarioBatch, arrangement: Arrangement, demand: float) -> list[Solution]:
+def solve(
+    batch: ScenarioBatch,
+    arrangement: Arrangement,
+    demand: float,
+    display: Display | None = None,
+) -> list[Solution]:
     """Solutions of one arrangement in every scenario of `batch`."""
     if not arrangement.identical:
-        return solve_mixed_parallel(batch, arrangement)
+        return solve_mixed_parallel(batch, arrangement, display)
     if arrangement.for_demand:
-        return solve_for_demand(batch, arrangement, demand)
+        return solve_for_demand(batch, arrangement, demand, display)
     unit = arrangement.units_at(1.0)[0]
-    return solve_fixed_speed(batch, Combined(unit, arrangement.count, arrangement.connection))
+    combined = Combined(unit, arrangement.count, arrangement.connection)
+    return solve_fixed_speed(batch, combined, display=display)
 
 
 def min_speed_ratio(static_head: float, shutoff_head: float) -> float:

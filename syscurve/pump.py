@@ -29,10 +29,9 @@ from .pumpfit import (
     Pchip,
     as_points,
     check_points,
-    flow_text,
     leave_one_out,
 )
-from .units import G
+from .units import Display, G
 
 #: Density of the test liquid of shaft-power data: water at 20 degC (IAPWS-95 gives
 #: 998.21 kg/m^3). [kg/m^3]
@@ -307,8 +306,9 @@ class PumpCurve:
         """Largest absolute leave-one-out head residual (see `head_residuals`). [m]"""
         return float(np.nanmax(np.abs(self.head_residuals())))
 
-    def consistency_warnings(self) -> list[str]:
+    def consistency_warnings(self, display: Display | None = None) -> list[str]:
         """Points where given efficiency and measured power disagree by more than 5 %."""
+        d = display or Display()
         if self.efficiency is None or self.shaft_power is None:
             return []
         messages = []
@@ -317,29 +317,36 @@ class PumpCurve:
             given = self.efficiency[i]
             if abs(derived[i] - given) > CONSISTENCY_TOLERANCE * given:
                 messages.append(
-                    f'pump "{self.name}" point {i + 1} ({flow_text(self.flow[i])}): efficiency '
+                    f'pump "{self.name}" point {i + 1} ({d.text("flow", self.flow[i])}): '
+                    "efficiency "
                     f"{given * 100:.1f} % given, but the measured shaft power gives "
                     f"{derived[i] * 100:.1f} % (rho g Q H / P with rho = {TEST_DENSITY} kg/m^3); "
                     f"check the power unit or the efficiency column"
                 )
         return messages
 
-    def warnings(self) -> list[str]:
-        """Everything worth a second look: unstable shape, extrapolated shutoff, data."""
+    def warnings(self, display: Display | None = None) -> list[str]:
+        """Everything worth a second look: unstable shape, extrapolated shutoff, data.
+
+        Numbers are written in `display` units (SI by default).
+        """
+        d = display or Display()
         messages = []
         if self.unstable:
             messages.append(
-                f'pump "{self.name}": the head rises from {self.head[0]:.3g} m at '
-                f"{flow_text(self.flow[0])} to {self.max_head:.3g} m (an unstable, drooping "
+                f'pump "{self.name}": the head rises from {d.text("head", self.head[0])} at '
+                f"{d.text('flow', self.flow[0])} to {d.text('head', self.max_head)} (an "
+                "unstable, drooping "
                 f"curve); left of the head maximum it can hunt between two flows, notably in "
                 f"parallel"
             )
         if self.shutoff_extrapolated:
             messages.append(
                 f'pump "{self.name}": no point at zero flow; the shutoff head '
-                f"{self.shutoff_head:.3g} m is extrapolated from {flow_text(self.flow[0])}"
+                f"{d.text('head', self.shutoff_head)} is extrapolated from "
+                f"{d.text('flow', self.flow[0])}"
             )
-        return messages + self.consistency_warnings()
+        return messages + self.consistency_warnings(d)
 
     # --- speed ------------------------------------------------------------------------
 

@@ -323,14 +323,25 @@ def _read_one_arrangement(
             return None
         units = (curve,) * count_raw
         conn = "single" if count_raw == 1 else (connection or "parallel")
-        label = curve.name if count_raw == 1 else f"{count_raw} x {curve.name} {conn}"
-        if for_demand:
-            label += " at speed for demand"
-        elif speed is not None:
-            label += f" at {speed:g} rpm"
+        label = arrangement_name(curve.name, count_raw, conn, speed, for_demand)
     name = r.string(table, "name", key, default=label) or label
     try:
         return Arrangement(name, units, conn, speed, for_demand)
     except CaseError as error:
         r.add(key, error.problems[0].message)
         return None
+
+
+def arrangement_name(
+    pump: str, count: int, connection: str, speed_rpm: float | None, for_demand: bool
+) -> str:
+    """The name an arrangement of identical pumps gets when the case gives none.
+
+    e.g. "booster A", "2 x booster A parallel", "booster B at speed for demand".
+    """
+    label = pump if count == 1 else f"{count} x {pump} {connection}"
+    if for_demand:
+        return label + " at speed for demand"
+    if speed_rpm is not None:
+        return label + f" at {speed_rpm:g} rpm"
+    return label

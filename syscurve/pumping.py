@@ -11,7 +11,7 @@ from .npsh import NPSH_GUIDELINE_SOURCE, PREFERRED_REGION_SOURCE, npsh_available
 from .operating import Solution, min_speed_ratio, solve_all
 from .pump import PumpCurve
 from .system import ScenarioBatch
-from .units import G
+from .units import Display, G
 
 
 @dataclass(frozen=True)
@@ -160,8 +160,10 @@ class PointBuilder:
         self.npsh_liquid = hot
         self.surface_pressure = case.barometric_pressure + case.source_gauge_pressure
         self._unit_cache: dict[tuple[int, float], tuple[PumpCurve, ...]] = {}
+        self.display = Display(case.display)
 
     def build(self, arrangement: Arrangement, solution: Solution) -> OperatingPoint:
+        d = self.display
         scenario = self.batch.scenarios[solution.scenario_index]
         warnings: list[str] = []
         units = self._units(arrangement, solution.speed_ratio or 1.0)
@@ -203,8 +205,9 @@ class PointBuilder:
             for u, q in zip(units, flows, strict=True):
                 if q <= 0:
                     warnings.append(
-                        f"{u.name} delivers nothing: its shutoff head {u.shutoff_head:.3g} m "
-                        f"is below the header head {head:.3g} m"
+                        f"{u.name} delivers nothing: its shutoff head "
+                        f"{d.text('head', u.shutoff_head)} is below the header head "
+                        f"{d.text('head', head)}"
                     )
         running = [u for u in unit_points if u.flow > 0]
         powers = [u.shaft_power for u in running]
@@ -221,9 +224,9 @@ class PointBuilder:
                 "slope, and efficiency, power and NPSH required are not reported"
             )
         if solution.status == "several-intersections":
-            listed = ", ".join(f"{q * 1000:.3g}" for q in solution.intersections)
+            listed = ", ".join(d.text("flow", q) for q in solution.intersections)
             warnings.append(
-                f"the curves meet at {len(solution.intersections)} flows ({listed} L/s); the "
+                f"the curves meet at {len(solution.intersections)} flows ({listed}); the "
                 "lowest-flow one is reported and the pump may hunt between them"
             )
         if arrangement.connection == "parallel" and any(u.unstable for u in set(units)):
@@ -247,8 +250,8 @@ class PointBuilder:
         meets = flow >= self.case.demand * (1 - 1e-9)
         if not meets:
             warnings.append(
-                f"delivers {flow * 1000:.3g} L/s, short of the demand "
-                f"{self.case.demand * 1000:.3g} L/s"
+                f"delivers {d.text('flow', flow)}, short of the demand "
+                f"{d.text('flow', self.case.demand)}"
             )
         energy, cost, specific = self._energy(shaft, flow)
         identical = arrangement.identical
@@ -309,6 +312,7 @@ class PointBuilder:
         connection: str,
         warnings: list[str],
     ) -> tuple[float | None, float | None, float | None, float | None]:
+        d = self.display
         station = self.part.station
         liquid = self.npsh_liquid
         # in series only the first unit draws from the suction line
@@ -338,14 +342,15 @@ class PointBuilder:
         needed = station.npsh_needed(npsh_r)
         if npsh_a < npsh_r:
             warnings.append(
-                f"NPSH available {npsh_a:.2f} m is below NPSH required {npsh_r:.2f} m: the pump "
+                f"NPSH available {d.text('head', npsh_a)} is below NPSH required "
+                f"{d.text('head', npsh_r)}: the pump "
                 "will cavitate"
             )
         elif npsh_a < needed:
             warnings.append(
-                f"NPSH available {npsh_a:.2f} m is short of the guideline {needed:.2f} m "
-                f"(ratio {station.margin_ratio:g} or {station.margin_min:g} m, whichever is "
-                "greater)"
+                f"NPSH available {d.text('head', npsh_a)} is short of the guideline "
+                f"{d.text('head', needed)} (ratio {station.margin_ratio:g} or "
+                f"{d.text('head', station.margin_min)}, whichever is greater)"
             )
         return npsh_a, npsh_r, ratio, margin
 
@@ -376,7 +381,7 @@ def operating_points(case: Any) -> list[OperatingPoint]:
         return []
     batch = ScenarioBatch(case.pipeline, case.scenarios)
     builder = PointBuilder(case, batch)
-    solutions = solve_all(batch, part.arrangements, case.demand)
+    solutions = solve_all(batch, part.arrangements, case.demand, Display(case.display))
     return [
         builder.build(arrangement, solution)
         for arrangement, group in zip(part.arrangements, solutions, strict=True)
@@ -389,12 +394,14 @@ def pump_cautions(case: Any, points: list[OperatingPoint]) -> list[str]:
     if not points:
         return []
     station = case.pump_part.station
+    display = Display(case.display)
     low, high = station.preferred_region
     cautions = [
         "NPSH required on a pump curve is NPSH3, the suction head at which the head has "
         "already dropped 3 % by cavitation; keep the margin over it in every scenario, "
         "worst at the highest flow and the warmest liquid. Guideline used: NPSHa/NPSHr >= "
-        f"{station.margin_ratio:g} or a margin of {station.margin_min:g} m, whichever is "
+        f"{station.margin_ratio:g} or a margin of {display.text('head', station.margin_min)}, "
+        "whichever is "
         f"greater (default from {NPSH_GUIDELINE_SOURCE}).",
         f"Preferred operating region used: {low:.0%}-{high:.0%} of BEP flow (default from "
         f"{PREFERRED_REGION_SOURCE}); the manufacturer sets the allowable region.",

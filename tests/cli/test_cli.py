@@ -71,6 +71,8 @@ def test_units_us_converts_the_summary(demo_file: Path) -> None:
     assert result.returncode == 0
     assert "[gpm]" in result.stdout and "[ft]" in result.stdout and "°F" in result.stdout
     assert "[L/s]" not in result.stdout
+    warnings = result.stdout.split("WARNINGS", 1)[1].split("CAUTIONS", 1)[0]
+    assert "ft/s" in warnings and "m/s" not in warnings
 
 
 def test_json_report_carries_the_contract_keys(demo_file: Path) -> None:

@@ -209,7 +209,7 @@ def test_a_pump_that_cannot_lift_the_static_head_is_a_result_not_an_error() -> N
     point = analyze(case_from_dict(data)).operating_points[0]
     assert point.status == "no-intersection"
     assert point.flow is None and point.efficiency is None
-    assert any("shutoff head 34 m is below the static head 60 m" in w for w in point.warnings)
+    assert any("shutoff head 34.0 m is below the static head 60.0 m" in w for w in point.warnings)
 
 
 def test_a_drooping_curve_can_meet_the_system_twice() -> None:

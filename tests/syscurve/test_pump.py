@@ -211,7 +211,7 @@ def test_both_efficiency_and_power_are_checked_against_each_other() -> None:
     power[3] *= 1.2  # point 5 off by 20 %
     pump = curve(shaft_power=np.concatenate([[900.0], power]))
     messages = pump.consistency_warnings()
-    assert len(messages) == 1 and "point 5" in messages[0] and "4 L/s" in messages[0]
+    assert len(messages) == 1 and "point 5" in messages[0] and "4.00 L/s" in messages[0]
     assert messages[0] in pump.warnings()
     # at shutoff (efficiency 0) the measured power, scaled, is used
     assert pump.shaft_power_at(0.0, TEST_DENSITY) == pytest.approx(900.0, rel=1e-14)
