@@ -12,7 +12,8 @@ from typing import Any
 
 from syscurve.errors import CaseError
 from syscurve.results import Report
-from syscurve.units import Display, format_number
+from syscurve.tables import scenario_table, segment_table
+from syscurve.units import Display
 
 from .figures import system_figure
 from .problems import empty_map, problem_map
@@ -48,65 +49,16 @@ def analyse(data: dict[str, Any]) -> Report:
     return analyze(case_from_dict(for_engine(data)))
 
 
-def scenario_table(report: Report, d: Display) -> dict[str, Any]:
-    """The scenarios: levels, static head, H_sys at the demand, gravity flow."""
-    level, head, flow = d.label("level"), d.label("head"), d.label("flow")
-    headers = [
-        "scenario",
-        f"source [{level}]",
-        f"delivery [{level}]",
-        "pipe age [yr]",
-        f"static head [{head}]",
-        f"H_sys at demand [{head}]",
-        f"gravity flow [{flow}]",
-        "gravity meets demand",
-        f"source level needed [{level}]",
-    ]
-    rows = [
-        [
-            r.name,
-            format_number(d.value("level", r.curve.scenario.source_level), 6),
-            format_number(d.value("level", r.curve.scenario.delivery_level), 6),
-            format_number(r.curve.scenario.age_years, 3),
-            format_number(d.value("head", r.static_head), 4),
-            format_number(d.value("head", r.head_at_demand), 4),
-            format_number(d.value("flow", r.gravity_flow), 4),
-            "yes" if r.meets_demand else "NO",
-            format_number(d.value("level", r.required_source_level), 6),
-        ]
-        for r in report.scenarios
-    ]
+def scenario_view(report: Report, d: Display) -> dict[str, Any]:
+    """The scenarios table of `syscurve.tables`."""
+    headers, rows = scenario_table(report, d)
     return {"headers": headers, "rows": rows}
 
 
-def segment_table(report: Report, d: Display) -> dict[str, Any]:
-    """Each segment at the demand in the governing scenario."""
-    governing = report.scenario(report.verdict.governing_scenario)
-    head = d.label("head")
-    headers = [
-        "segment",
-        f"inside diameter [{d.label('diameter')}]",
-        f"velocity [{d.label('velocity')}]",
-        "Re",
-        "f (Darcy)",
-        "K total",
-        f"friction loss [{head}]",
-        f"minor loss [{head}]",
-    ]
-    rows = [
-        [
-            s.name,
-            format_number(d.value("diameter", s.diameter), 4),
-            format_number(d.value("velocity", s.velocity), 3),
-            f"{s.reynolds:,.0f}",
-            f"{s.friction_factor:.4f}",
-            format_number(s.k_minor, 3),
-            format_number(d.value("head", s.friction_loss), 4),
-            format_number(d.value("head", s.minor_loss), 3),
-        ]
-        for s in governing.segments_at_demand
-    ]
-    return {"headers": headers, "rows": rows, "scenario": governing.name}
+def segment_view(report: Report, d: Display) -> dict[str, Any]:
+    """The segments at the demand in the governing scenario (`syscurve.tables`)."""
+    headers, rows = segment_table(report, d)
+    return {"headers": headers, "rows": rows, "scenario": report.verdict.governing_scenario}
 
 
 def operating_view(report: Report, d: Display) -> dict[str, Any]:
@@ -154,8 +106,8 @@ def report_view(report: Report, d: Display) -> dict[str, Any]:
         "problems": empty_map(),
         "verdict": verdict_view(report, d),
         "figure": system_figure(report, d),
-        "scenarios": scenario_table(report, d),
-        "segments": segment_table(report, d),
+        "scenarios": scenario_view(report, d),
+        "segments": segment_view(report, d),
         "operating": operating_view(report, d),
         "warnings": list(report.warnings),
         "cautions": list(report.cautions),

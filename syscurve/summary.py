@@ -7,7 +7,8 @@ from collections.abc import Sequence
 
 from .pumping import OperatingPoint
 from .results import Report
-from .units import Display, format_number
+from .tables import columns, format_cell, row_values, scenario_table, segment_table
+from .units import Display
 
 
 def text_table(headers: Sequence[str], rows: Sequence[Sequence[str]], indent: str = "  ") -> str:
@@ -109,68 +110,11 @@ def summary_text(report: Report, units: str | None = None) -> str:
     )
     out.append("")
     out.append("SCENARIOS")
-    head, level, flow = d.label("head"), d.label("level"), d.label("flow")
-    rows = [
-        [
-            r.name,
-            format_number(d.value("level", r.curve.scenario.source_level), 6),
-            format_number(d.value("level", r.curve.scenario.delivery_level), 6),
-            format_number(r.curve.scenario.age_years, 3),
-            format_number(d.value("head", r.static_head), 4),
-            format_number(d.value("head", r.head_at_demand), 4),
-            format_number(d.value("flow", r.gravity_flow), 4),
-            "yes" if r.meets_demand else "NO",
-            format_number(d.value("level", r.required_source_level), 6),
-        ]
-        for r in report.scenarios
-    ]
-    out.append(
-        text_table(
-            [
-                "scenario",
-                f"source [{level}]",
-                f"delivery [{level}]",
-                "pipe age [yr]",
-                f"static head [{head}]",
-                f"H_sys at demand [{head}]",
-                f"gravity flow [{flow}]",
-                "meets demand",
-                f"source needed [{level}]",
-            ],
-            rows,
-        )
-    )
+    out.append(text_table(*scenario_table(report, d)))
     out.append("")
-    governing = report.scenario(report.verdict.governing_scenario)
-    out.append(f"SEGMENTS AT THE DEMAND ({governing.name})")
-    rows = [
-        [
-            s.name,
-            format_number(d.value("diameter", s.diameter), 4),
-            format_number(d.value("velocity", s.velocity), 3),
-            f"{s.reynolds:,.0f}",
-            f"{s.friction_factor:.4f}",
-            format_number(s.k_minor, 3),
-            format_number(d.value("head", s.friction_loss), 4),
-            format_number(d.value("head", s.minor_loss), 3),
-        ]
-        for s in governing.segments_at_demand
-    ]
-    out.append(
-        text_table(
-            [
-                "segment",
-                f"inside diameter [{d.label('diameter')}]",
-                f"velocity [{d.label('velocity')}]",
-                "Re",
-                "f (Darcy)",
-                "K total",
-                f"friction loss [{head}]",
-                f"minor loss [{head}]",
-            ],
-            rows,
-        )
-    )
+    governing = report.verdict.governing_scenario
+    out.append(f"SEGMENTS AT THE DEMAND ({governing})")
+    out.append(text_table(*segment_table(report, d)))
     if report.operating_points or report.case.pump_part.pumps:
         out.append("")
         out.append(pump_sections(report, d))
@@ -201,8 +145,6 @@ def duty_sentence(report: Report, display: Display) -> str:
 
 def pump_sections(report: Report, d: Display) -> str:
     """Required duty, the pumps and the operating-point table."""
-    from .tables import columns, format_cell, row_values
-
     out = ["PUMPS", "  " + duty_sentence(report, d)]
     for pump in report.case.pump_part.pumps:
         bep = (

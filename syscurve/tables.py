@@ -16,7 +16,7 @@ from typing import Any
 from .errors import CaseError
 from .pumping import OperatingPoint
 from .results import Report
-from .units import Display
+from .units import Display, format_number
 
 
 @dataclass(frozen=True)
@@ -55,6 +55,67 @@ def columns(display: Display, currency: str = "") -> list[Column]:
         Column(f"specific energy [{display.label('specific_energy')}]", "number", 3),
         Column("warnings", "text"),
     ]
+
+
+def scenario_table(report: Report, d: Display) -> tuple[list[str], list[list[str]]]:
+    """The scenarios: levels, pipe age, static head, H_sys at the demand, gravity flow."""
+    level, head, flow = d.label("level"), d.label("head"), d.label("flow")
+    headers = [
+        "scenario",
+        f"source [{level}]",
+        f"delivery [{level}]",
+        "pipe age [yr]",
+        f"static head [{head}]",
+        f"H_sys at demand [{head}]",
+        f"gravity flow [{flow}]",
+        "gravity meets demand",
+        f"source level needed [{level}]",
+    ]
+    rows = [
+        [
+            r.name,
+            format_number(d.value("level", r.curve.scenario.source_level), 6),
+            format_number(d.value("level", r.curve.scenario.delivery_level), 6),
+            format_number(r.curve.scenario.age_years, 3),
+            format_number(d.value("head", r.static_head), 4),
+            format_number(d.value("head", r.head_at_demand), 4),
+            format_number(d.value("flow", r.gravity_flow), 4),
+            "yes" if r.meets_demand else "NO",
+            format_number(d.value("level", r.required_source_level), 6),
+        ]
+        for r in report.scenarios
+    ]
+    return headers, rows
+
+
+def segment_table(report: Report, d: Display) -> tuple[list[str], list[list[str]]]:
+    """Each segment at the demand in the governing scenario."""
+    governing = report.scenario(report.verdict.governing_scenario)
+    head = d.label("head")
+    headers = [
+        "segment",
+        f"inside diameter [{d.label('diameter')}]",
+        f"velocity [{d.label('velocity')}]",
+        "Re",
+        "f (Darcy)",
+        "K total",
+        f"friction loss [{head}]",
+        f"minor loss [{head}]",
+    ]
+    rows = [
+        [
+            s.name,
+            format_number(d.value("diameter", s.diameter), 4),
+            format_number(d.value("velocity", s.velocity), 3),
+            f"{s.reynolds:,.0f}",
+            f"{s.friction_factor:.4f}",
+            format_number(s.k_minor, 3),
+            format_number(d.value("head", s.friction_loss), 4),
+            format_number(d.value("head", s.minor_loss), 3),
+        ]
+        for s in governing.segments_at_demand
+    ]
+    return headers, rows
 
 
 def _percent(value: float | None) -> float | None:
@@ -102,8 +163,6 @@ def operating_table(report: Report, units: str | None = None) -> tuple[list[str]
 
 def format_cell(value: Any, column: Column) -> str:
     """Text of one cell for CSV and the summary: empty for None, 4 significant figures."""
-    from .units import format_number
-
     if value is None:
         return ""
     if column.kind == "bool":
