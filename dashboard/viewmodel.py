@@ -19,6 +19,7 @@ from __future__ import annotations
 import copy
 import math
 import re
+from collections.abc import Callable
 from typing import Any
 
 from syscurve.errors import CaseError
@@ -254,33 +255,25 @@ def set_units(data: dict[str, Any], system: str) -> dict[str, Any]:
 # --- what the engine reads --------------------------------------------------------------
 
 
-def for_engine(data: dict[str, Any]) -> dict[str, Any]:
-    """The case dict as the engine and a TOML file take it (``None`` in pump lists -> NaN)."""
+def _map_pump_lists(data: dict[str, Any], change: Callable[[Any], Any]) -> dict[str, Any]:
+    """A copy of the case with `change` applied to every value of every pump list."""
     result = copy.deepcopy(data)
     pumps = result.get("pump")
-    if isinstance(pumps, list):
-        for table in pumps:
-            if not isinstance(table, dict):
-                continue
-            for name in _PUMP_LISTS:
-                values = table.get(name)
-                if isinstance(values, list):
-                    table[name] = [math.nan if v is None else v for v in values]
+    for table in pumps if isinstance(pumps, list) else []:
+        if not isinstance(table, dict):
+            continue
+        for name in _PUMP_LISTS:
+            values = table.get(name)
+            if isinstance(values, list):
+                table[name] = [change(v) for v in values]
     return result
+
+
+def for_engine(data: dict[str, Any]) -> dict[str, Any]:
+    """The case dict as the engine and a TOML file take it (``None`` in pump lists -> NaN)."""
+    return _map_pump_lists(data, lambda v: math.nan if v is None else v)
 
 
 def for_store(data: dict[str, Any]) -> dict[str, Any]:
     """The case dict as the browser keeps it (JSON: NaN in pump lists -> ``None``)."""
-    result = copy.deepcopy(data)
-    pumps = result.get("pump")
-    if isinstance(pumps, list):
-        for table in pumps:
-            if not isinstance(table, dict):
-                continue
-            for name in _PUMP_LISTS:
-                values = table.get(name)
-                if isinstance(values, list):
-                    table[name] = [
-                        None if isinstance(v, float) and math.isnan(v) else v for v in values
-                    ]
-    return result
+    return _map_pump_lists(data, lambda v: None if isinstance(v, float) and math.isnan(v) else v)
