@@ -5,6 +5,7 @@ from __future__ import annotations
 import numpy as np
 
 from .case import VELOCITY_RANGE_SOURCE, Case
+from .catalogue import WAVE_SPEED_SOURCE
 from .friction import range_warnings
 from .gravity import (
     DiameterChoice,
@@ -173,6 +174,34 @@ def pressure_warnings(case: Case, results: list[ScenarioResult], d: Display) -> 
     return warnings
 
 
+def surge_screening(
+    case: Case, results: list[ScenarioResult], points: list[OperatingPoint], d: Display
+) -> str | None:
+    """A Joukowsky screening figure for the cautions: dH = a V / g for a sudden stop.
+
+    Takes the largest steady flow found (gravity flow with the outlet open, the demand,
+    or a pumped operating point), the segment where it gives the largest head change,
+    and the wave's round trip 2 sum(L/a) along the route. None without wave speeds.
+    """
+    segments = [s for s in case.pipeline.segments if s.wave_speed]
+    if not segments:
+        return None
+    flows = [case.demand, *(r.gravity_flow for r in results)]
+    flows += [p.flow for p in points if p.flow is not None]
+    flow = max(flows)
+    worst = max(segments, key=lambda s: (s.wave_speed or 0.0) * flow / s.area)
+    assert worst.wave_speed is not None
+    surge = worst.wave_speed * (flow / worst.area) / G
+    round_trip = 2.0 * sum(s.length / (s.wave_speed or 1.0) for s in segments)
+    return (
+        f"Surge screening (Joukowsky, dH = a dV/g): stopping the largest steady flow found "
+        f"here ({d.text('flow', flow)}) at once could change the head by about "
+        f"{d.text('head', surge, 2)} in segment '{worst.name}' (wave speed about "
+        f"{d.text('velocity', worst.wave_speed, 2)}; {WAVE_SPEED_SOURCE}). Closures faster "
+        f"than 2L/a, about {round_trip:.2g} s along the route, count as sudden."
+    )
+
+
 def size_for_gravity(case: Case, results: list[ScenarioResult]) -> DiameterChoice | None:
     """Smallest candidate diameter meeting the demand by gravity in the governing scenario."""
     if not case.sizing_candidates:
@@ -214,6 +243,9 @@ def analyze(case: Case) -> Report:
     if case.pump_part.arrangements:
         points = operating_points(case)
         cautions += pump_cautions(case, points)
+    surge = surge_screening(case, results, points, display)
+    if surge:
+        cautions.insert(1, surge)
         for pump in case.pump_part.pumps:
             warnings += pump.warnings(display)
     return Report(

@@ -66,6 +66,7 @@ SEGMENT_KEYS = (
     "suction",
     "elevation_end",
     "pressure_rating",
+    "wave_speed",
 )
 
 
@@ -399,6 +400,7 @@ def _read_segments(r: Reader, data: dict[str, Any], model: FrictionModel) -> lis
         seen_non_suction = seen_non_suction or not suction
         elevation = r.quantity(table, "elevation_end", path, "length")
         rating = r.quantity(table, "pressure_rating", path, "pressure", positive=True)
+        wave_speed = r.quantity(table, "wave_speed", path, "velocity", positive=True)
         if length is None or diameter is None:
             continue
         if roughness is None:
@@ -427,6 +429,7 @@ def _read_segments(r: Reader, data: dict[str, Any], model: FrictionModel) -> lis
                 material=material.name if material else None,
                 elevation_end=elevation,
                 pressure_rating=rating,
+                wave_speed=wave_speed or (material.wave_speed if material else None),
             )
         )
     return segments

@@ -27,6 +27,11 @@ AGING_RATE_SOURCE = (
     "common practice: order of magnitude after Lamont, P. A. (1981), J. AWWA 73(5):274-280 "
     "(from memory); depends on the water, set roughness_growth for your case"
 )
+#: Basis of the wave speeds used only for the surge screening figure.
+WAVE_SPEED_SOURCE = (
+    "common practice orders of magnitude (from memory): about 1000-1300 m/s in steel and "
+    "iron, 200-500 m/s in PVC and HDPE; the real value depends on wall thickness and restraint"
+)
 #: Hazen-Williams C never drops below this in the aged scenarios (common practice floor).
 HAZEN_WILLIAMS_C_FLOOR = 60.0
 
@@ -47,6 +52,7 @@ class Material:
     hazen_williams_c: float  # [-], new pipe
     hazen_williams_c_source: str
     hazen_williams_c_decline: float  # [1/year]
+    wave_speed: float = 1000.0  # [m/s], pressure-wave speed for surge screening
 
     def roughness_at(self, age_years: float) -> float:
         """Absolute roughness after `age_years`, linear growth. [m]"""
@@ -75,6 +81,7 @@ MATERIALS: dict[str, Material] = {
             150.0,
             "AWWA M23 design value 150 (from memory)",
             0.0,
+            400.0,
         ),
         Material(
             "hdpe",
@@ -85,6 +92,7 @@ MATERIALS: dict[str, Material] = {
             150.0,
             "AWWA M55 design value 150 (from memory)",
             0.0,
+            300.0,
         ),
         Material(
             "steel-commercial",
@@ -95,6 +103,7 @@ MATERIALS: dict[str, Material] = {
             120.0,
             "Williams & Hazen tables; textbooks 120-140 new (from memory)",
             1.0,
+            1200.0,
         ),
         Material(
             "steel-galvanized",
@@ -105,6 +114,7 @@ MATERIALS: dict[str, Material] = {
             120.0,
             "textbooks (from memory)",
             1.0,
+            1200.0,
         ),
         Material(
             "stainless-steel",
@@ -115,6 +125,7 @@ MATERIALS: dict[str, Material] = {
             140.0,
             "common practice",
             0.0,
+            1200.0,
         ),
         Material(
             "cast-iron",
@@ -125,6 +136,7 @@ MATERIALS: dict[str, Material] = {
             130.0,
             "Williams & Hazen (1920): 130 new, about 100 at 20 years (from memory)",
             1.5,
+            1100.0,
         ),
         Material(
             "ductile-iron-lined",
@@ -135,6 +147,7 @@ MATERIALS: dict[str, Material] = {
             140.0,
             "AWWA/DIPRA practice (common practice)",
             0.25,
+            1100.0,
         ),
         Material(
             "concrete",
@@ -145,6 +158,7 @@ MATERIALS: dict[str, Material] = {
             130.0,
             "textbooks 120-140 (from memory)",
             0.5,
+            1100.0,
         ),
         Material(
             "copper",
@@ -155,6 +169,7 @@ MATERIALS: dict[str, Material] = {
             140.0,
             "textbooks 130-140 (from memory)",
             0.25,
+            1200.0,
         ),
     )
 }

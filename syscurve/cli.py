@@ -79,18 +79,32 @@ def _analyze(args: argparse.Namespace) -> int:
 
 
 def _catalogue() -> int:
-    from .catalogue import FITTINGS, MATERIALS, PIPE_SERIES, PIPE_SERIES_SOURCES
+    from .catalogue import (
+        AGING_MODEL_REFERENCE,
+        AGING_RATE_SOURCE,
+        FITTINGS,
+        MATERIALS,
+        PIPE_SERIES,
+        PIPE_SERIES_SOURCES,
+        WAVE_SPEED_SOURCE,
+    )
     from .friction import MODELS
 
     print("FRICTION MODELS  (pipe.friction)")
     for m in MODELS.values():
         print(f"  {m.name:<16} {m.label}; {m.reference}")
-    print("\nMATERIALS  (segment.material): roughness new [mm], growth [mm/yr], Hazen-Williams C")
+    print(
+        "\nMATERIALS  (segment.material): roughness new [mm], growth [mm/yr], "
+        "Hazen-Williams C, wave speed [m/s]"
+    )
     for mat in MATERIALS.values():
         print(
             f"  {mat.name:<20} {mat.roughness * 1000:<8g} {mat.roughness_growth * 1000:<6g} "
-            f"{mat.hazen_williams_c:<5g} {mat.label}; roughness: {mat.roughness_source}"
+            f"{mat.hazen_williams_c:<5g} {mat.wave_speed:<6g} {mat.label}; "
+            f"roughness: {mat.roughness_source}"
         )
+    print(f"  growth: {AGING_MODEL_REFERENCE}; rates: {AGING_RATE_SOURCE}")
+    print(f"  wave speeds: {WAVE_SPEED_SOURCE}")
     print("\nFITTINGS  (segment.fittings): K on the segment's velocity head")
     for f in FITTINGS.values():
         print(f"  {f.name:<26} {f.k:<6g} {f.label}; {f.source}")

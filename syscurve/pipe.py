@@ -47,6 +47,8 @@ class Segment:
         Pipe centreline elevation at the downstream end. [m]
     pressure_rating : float or None
         Allowable gauge pressure of the pipe class. [Pa]
+    wave_speed : float or None
+        Pressure-wave speed, for the surge screening figure only. [m/s]
     """
 
     name: str
@@ -62,6 +64,7 @@ class Segment:
     material: str | None = None
     elevation_end: float | None = None
     pressure_rating: float | None = None
+    wave_speed: float | None = None
 
     def __post_init__(self) -> None:
         where = f"segment '{self.name}'"
