@@ -293,6 +293,7 @@ SEGMENT_COLUMNS: tuple[ColumnSpec, ...] = (
     ColumnSpec("suction", "Suction", "boolean", "boolean", 80),
     ColumnSpec("elevation_end", "End elevation", "length", "level", 100),
     ColumnSpec("pressure_rating", "Pressure rating", "pressure", "pressure", 100),
+    ColumnSpec("wave_speed", "Wave speed", "velocity", "velocity", 90, "wave speed"),
     ColumnSpec("hazen_williams_c", "H-W C", "number", "number", 70, "Hazen-Williams C"),
 )
 SEGMENT_COLUMNS_BY_KEY: dict[str, ColumnSpec] = {c.key: c for c in SEGMENT_COLUMNS}
