@@ -7,6 +7,7 @@ stand in the file) and says how to fix it.
 
 from __future__ import annotations
 
+import math
 import tomllib
 from dataclasses import dataclass, field
 from pathlib import Path
@@ -282,9 +283,10 @@ def case_from_dict(data: dict[str, Any], base_dir: Path | None = None) -> Case:
 def _read_liquid(
     r: Reader, data: dict[str, Any], absolute_pressure: float
 ) -> tuple[Liquid | None, Liquid | None]:
-    table = r.table(data, "liquid", required=True)
-    if not table:
+    if not isinstance(data.get("liquid"), dict):
+        r.table(data, "liquid", required=True)  # records what is wrong
         return None, None
+    table = data["liquid"]
     kind = r.string(table, "kind", "liquid", default="water", choices=("water", "custom"))
     if kind == "water":
         r.known_keys(table, ("kind", "temperature", "temperature_max"), "liquid")
@@ -450,7 +452,12 @@ def _read_fittings(
         except CaseError as error:
             r.problems.extend(error)
             continue
-        if isinstance(count, bool) or not isinstance(count, (int, float)) or count < 0:
+        if (
+            isinstance(count, bool)
+            or not isinstance(count, (int, float))
+            or not math.isfinite(count)
+            or count < 0
+        ):
             r.add(key, f"expected a count >= 0, got {count!r}")
             continue
         if name == "exit":

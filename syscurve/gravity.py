@@ -78,9 +78,12 @@ def smallest_diameter(
     names = tuple(
         s.name for s in pipeline.segments if segment_names is None or s.name in segment_names
     )
+    resized = [s for s in pipeline.segments if segment_names is None or s.name in segment_names]
     for label, diameter, source in sorted(candidates, key=lambda c: c[1]):
         if not (math.isfinite(diameter) and diameter > 0):
             continue
+        if any(s.roughness_at(scenario.age_years) >= 0.5 * diameter for s in resized):
+            continue  # roughness as large as the radius: not a pipe
         curve = pipeline.with_diameters(diameter, segment_names).at(scenario)
         head = float(curve.head(demand))
         if head <= 0:

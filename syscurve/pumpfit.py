@@ -223,6 +223,8 @@ def check_points(
 
     if n < 3:
         problems.add(f"{key}.flow", f"needs at least 3 points, got {n}; a curve needs shape")
+        if n == 0:
+            return
     good: dict[str, FloatArray] = {}
     for quantity, values in arrays.items():
         if values is None:
