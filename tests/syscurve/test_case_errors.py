@@ -252,36 +252,29 @@ def test_bad_arrangements_name_the_key(
     assert message.startswith(expected), message
 
 
-def test_a_pump_csv_with_a_missing_column(minimal: dict[str, Any], tmp_path: Path) -> None:
-    (tmp_path / "p.csv").write_text(
-        "# name: p\n# speed: 2900 rpm\nflow [L/s],efficiency [%]\n0,0\n1,40\n2,60\n",
-        encoding="utf-8",
-    )
-    minimal["pump"] = [{"name": "p", "file": "p.csv"}]
-    path = tmp_path / "case.toml"
+def load_with_pump_csv(minimal: dict[str, Any], tmp_path: Path, csv_text: str) -> str:
+    """Load the minimal case with a pump from `csv_text`; the error message."""
     import tomli_w
 
+    (tmp_path / "p.csv").write_text(csv_text, encoding="utf-8")
+    minimal["pump"] = [{"name": "p", "file": "p.csv"}]
+    path = tmp_path / "case.toml"
     path.write_text(tomli_w.dumps(minimal), encoding="utf-8")
     with pytest.raises(CaseError) as error:
         load_case(path)
-    message = str(error.value)
+    return str(error.value)
+
+
+def test_a_pump_csv_with_a_missing_column(minimal: dict[str, Any], tmp_path: Path) -> None:
+    csv_text = "# name: p\n# speed: 2900 rpm\nflow [L/s],efficiency [%]\n0,0\n1,40\n2,60\n"
+    message = load_with_pump_csv(minimal, tmp_path, csv_text)
     assert message.startswith("pump[1].file (p.csv)")
     assert "head" in message
 
 
 def test_a_pump_csv_with_a_unit_that_does_not_fit(minimal: dict[str, Any], tmp_path: Path) -> None:
-    (tmp_path / "p.csv").write_text(
-        "# name: p\n# speed: 2900 rpm\nflow [L/s],head [L/s]\n0,30\n1,29\n2,26\n",
-        encoding="utf-8",
-    )
-    minimal["pump"] = [{"name": "p", "file": "p.csv"}]
-    path = tmp_path / "case.toml"
-    import tomli_w
-
-    path.write_text(tomli_w.dumps(minimal), encoding="utf-8")
-    with pytest.raises(CaseError) as error:
-        load_case(path)
-    message = str(error.value)
+    csv_text = "# name: p\n# speed: 2900 rpm\nflow [L/s],head [L/s]\n0,30\n1,29\n2,26\n"
+    message = load_with_pump_csv(minimal, tmp_path, csv_text)
     assert "head [L/s]" in message and "length" in message
 
 

@@ -38,17 +38,19 @@ def parabola_pump() -> PumpCurve:
     return PumpCurve.from_points("parabola", 1450.0, flow, 60.0 - 1500.0 * flow**2)
 
 
+CONSTRUCTED_CASE: dict[str, Any] = {
+    "format": 1,
+    "liquid": {"kind": "water", "temperature": "20 degC"},
+    "source": {"level": "0 m"},
+    "delivery": {"outlet": "tank", "level": "20 m", "demand": "0.1 m^3/s"},
+    "segment": [
+        {"length": "500 m", "diameter": "0.2 m", "roughness": "0.045 mm", "k_extra": 1.25}
+    ],  # the engine adds the exit's 1.0
+}
+
+
 def constructed_batch() -> ScenarioBatch:
-    data = {
-        "format": 1,
-        "liquid": {"kind": "water", "temperature": "20 degC"},
-        "source": {"level": "0 m"},
-        "delivery": {"outlet": "tank", "level": "20 m", "demand": "0.1 m^3/s"},
-        "segment": [
-            {"length": "500 m", "diameter": "0.2 m", "roughness": "0.045 mm", "k_extra": 1.25}
-        ],  # the engine adds the exit's 1.0
-    }
-    case = case_from_dict(data)
+    case = case_from_dict(copy.deepcopy(CONSTRUCTED_CASE))
     return ScenarioBatch(case.pipeline, case.scenarios)
 
 
@@ -89,16 +91,7 @@ def test_constructed_cross_check_against_fluids_and_scipy_live() -> None:
 
 def test_hydraulic_power_at_the_constructed_point() -> None:
     # Analytic: P = rho g Q H; the cross-check gives 44 722 W with rho 998.21 kg/m^3.
-    data = {
-        "format": 1,
-        "liquid": {"kind": "water", "temperature": "20 degC"},
-        "source": {"level": "0 m"},
-        "delivery": {"outlet": "tank", "level": "20 m", "demand": "0.1 m^3/s"},
-        "segment": [
-            {"length": "500 m", "diameter": "0.2 m", "roughness": "0.045 mm", "k_extra": 1.25}
-        ],
-    }
-    case = case_from_dict(data)
+    case = case_from_dict(copy.deepcopy(CONSTRUCTED_CASE))
     points = analyze(_with_pump(case, parabola_pump())).operating_points
     assert points[0].hydraulic_power == pytest.approx(44722, rel=1e-4)
 
