@@ -35,6 +35,18 @@ MINIMAL: dict[str, Any] = {
 }
 
 
+#: A small pump given by points (invented), for tests that add or break pumps.
+PUMP_POINTS: dict[str, Any] = {
+    "name": "p",
+    "speed": "2900 rpm",
+    "flow_unit": "L/s",
+    "head_unit": "m",
+    "flow": [0, 1, 2, 3],
+    "head": [30, 29, 26, 20],
+    "efficiency": [0, 40, 60, 55],
+}
+
+
 @pytest.fixture
 def minimal() -> dict[str, Any]:
     """A small valid case (invented) that tests change one key at a time."""

@@ -306,18 +306,10 @@ def test_bad_pump_input_exits_2_naming_the_key(
 ) -> None:
     import copy
 
-    from tests.conftest import MINIMAL
+    from tests.conftest import MINIMAL, PUMP_POINTS
 
     data = copy.deepcopy(MINIMAL)
-    base = {
-        "name": "p",
-        "speed": "2900 rpm",
-        "flow_unit": "L/s",
-        "head_unit": "m",
-        "flow": [0, 1, 2, 3],
-        "head": [30, 29, 26, 20],
-        "efficiency": [0, 40, 60, 55],
-    }
+    base = PUMP_POINTS
     data["pump"] = [{**base, **pump}]
     if arrangement:
         data["arrangement"] = [arrangement]

@@ -9,6 +9,7 @@ import pytest
 
 from syscurve.case import case_from_dict, load_case
 from syscurve.errors import CaseError
+from tests.conftest import PUMP_POINTS
 
 
 def problems(data: dict[str, Any]) -> list[str]:
@@ -174,15 +175,7 @@ def test_an_exit_fitting_is_accepted_with_a_double_counting_warning(
 
 # --- pumps and arrangements -------------------------------------------------------------
 
-PUMP: dict[str, Any] = {
-    "name": "p",
-    "speed": "2900 rpm",
-    "flow_unit": "L/s",
-    "head_unit": "m",
-    "flow": [0, 1, 2, 3],
-    "head": [30, 29, 26, 20],
-    "efficiency": [0, 40, 60, 55],
-}
+PUMP: dict[str, Any] = PUMP_POINTS
 
 
 def with_pump(
